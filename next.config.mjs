@@ -1,0 +1,7 @@
+/** @type {import('next').NextConfig} */
+const nextConfig = {
+  serverExternalPackages: ['sequelize', 'pg', 'pg-hstore'],
+  poweredByHeader: false,
+  experimental: { turbopackFileSystemCacheForBuild: false },
+};
+export default nextConfig;
