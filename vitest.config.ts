@@ -2,7 +2,12 @@ import { defineConfig } from 'vitest/config';
 import path from 'node:path';
 
 export default defineConfig({
-  resolve: { alias: { '@': path.resolve(import.meta.dirname) } },
+  resolve: {
+    alias: {
+      '@': path.resolve(import.meta.dirname),
+      'server-only': path.resolve(import.meta.dirname, 'tests/fixtures/server-only.ts'),
+    },
+  },
   test: {
     // Playwright specs live in tests/e2e and are run by Playwright only.
     include: ['tests/unit/**/*.test.ts', 'tests/reference/**/*.test.ts', 'tests/routes/**/*.test.ts'],
