@@ -1,0 +1,51 @@
+/**
+ * All Sequelize models and their associations, bound to one Sequelize instance by
+ * `initModels` (called once, from lib/db.ts). Only lib/data, lib/auth and the scripts use them.
+ */
+import type { Sequelize } from 'sequelize';
+import { User } from './user';
+import { Account, Session, VerificationToken } from './auth-tables';
+import { SignInThrottle } from './sign-in-throttle';
+import { Team } from './team';
+import { Membership } from './membership';
+import { Invitation } from './invitation';
+import { Design } from './design';
+import { DesignRevision } from './design-revision';
+
+export { User, Account, Session, VerificationToken, SignInThrottle, Team, Membership, Invitation, Design, DesignRevision };
+
+/** The model classes, initialised. */
+export interface Models {
+  User: typeof User;
+  Account: typeof Account;
+  Session: typeof Session;
+  VerificationToken: typeof VerificationToken;
+  SignInThrottle: typeof SignInThrottle;
+  Team: typeof Team;
+  Membership: typeof Membership;
+  Invitation: typeof Invitation;
+  Design: typeof Design;
+  DesignRevision: typeof DesignRevision;
+}
+
+let boundTo: Sequelize | null = null;
+
+/** Bind every model to `sequelize` and declare the associations (idempotent per instance). */
+export function initModels(sequelize: Sequelize): Models {
+  const models: Models = { User, Account, Session, VerificationToken, SignInThrottle, Team, Membership, Invitation, Design, DesignRevision };
+  if (boundTo === sequelize) return models;
+  boundTo = sequelize;
+  for (const m of Object.values(models)) m.initModel(sequelize);
+
+  Account.belongsTo(User, { foreignKey: 'userId', onDelete: 'cascade' });
+  Session.belongsTo(User, { foreignKey: 'userId', onDelete: 'cascade' });
+  Membership.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  Membership.belongsTo(Team, { foreignKey: 'teamId', as: 'team' });
+  Team.hasMany(Membership, { foreignKey: 'teamId', as: 'memberships' });
+  Invitation.belongsTo(User, { foreignKey: 'invitedById', as: 'invitedBy' });
+  Invitation.belongsTo(Team, { foreignKey: 'teamId', as: 'team' });
+  Design.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+  Design.belongsTo(Design, { foreignKey: 'forkedFromDesignId', as: 'forkedFrom' });
+  DesignRevision.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+  return models;
+}
