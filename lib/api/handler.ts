@@ -1,0 +1,149 @@
+/**
+ * The wrapper every route handler goes through. It reads the body with a size limit, checks the
+ * content type, parses JSON, validates body and query with zod, checks id-shaped path
+ * parameters, and turns every failure into `{ error: { code, message, field? } }` with the
+ * right status. Anything unexpected is logged (method, path and error text only — never
+ * headers, cookies or bodies) and answered with a bare 500.
+ */
+import type { NextRequest } from 'next/server';
+import { z } from 'zod';
+import { UniqueConstraintError } from 'sequelize';
+import { MAX_BODY_BYTES } from './contract';
+import { AppError, notFound } from '../errors';
+
+type Params = Record<string, string>;
+type Schema = z.ZodType | undefined;
+type Out<S extends Schema> = S extends z.ZodType ? z.output<S> : undefined;
+
+/** What a route's function receives. */
+export interface RouteContext<P extends Params, B, Q> {
+  req: NextRequest;
+  params: P;
+  body: B;
+  query: Q;
+}
+
+/** How a route reads its input and answers. */
+export interface RouteOptions<BS extends Schema, QS extends Schema> {
+  /** zod schema of the JSON body; without one the body is ignored. */
+  body?: BS;
+  /** zod schema of the query string (values are strings). */
+  query?: QS;
+  /** Status of a successful answer (default 200; 201 for creations). */
+  status?: number;
+}
+
+/** The function signature Next.js calls for an App Router route handler. */
+export type NextRouteHandler<P extends Params> = (req: NextRequest, ctx: { params: Promise<P> }) => Promise<Response>;
+
+const UUID_RE = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/** A JSON response that no cache keeps. */
+export function json(data: unknown, status = 200): Response {
+  return Response.json(data, { status, headers: { 'cache-control': 'no-store' } });
+}
+
+/** The JSON error response for `e` (an AppError, a ZodError, or anything else → 500). */
+export function errorResponse(e: unknown, where: string): Response {
+  if (e instanceof AppError) return json(e.toBody(), e.status);
+  if (e instanceof z.ZodError) return json(zodError(e).toBody(), 422);
+  if (e instanceof UniqueConstraintError) return json(new AppError('exists', 'that already exists').toBody(), 409);
+  const detail = e instanceof Error ? `${e.name}: ${e.message}\n${e.stack ?? ''}` : String(e);
+  console.error(`[api] ${where} failed: ${detail}`);
+  return json({ error: { code: 'internal', message: 'something went wrong on the server' } }, 500);
+}
+
+/** The 422 AppError for a failed zod parse: the first issue, its path joined with '.'. */
+export function zodError(err: z.ZodError): AppError {
+  const issue = err.issues[0];
+  const field = issue && issue.path.length ? issue.path.map(String).join('.') : undefined;
+  const message = issue ? (field ? `${field}: ${issue.message}` : issue.message) : 'invalid input';
+  return new AppError('invalid', message, field === undefined ? {} : { field });
+}
+
+/** Read the request body as UTF-8 text, refusing more than MAX_BODY_BYTES (413). */
+export async function readBodyText(req: Request, maxBytes = MAX_BODY_BYTES): Promise<string> {
+  const declared = Number(req.headers.get('content-length') ?? '0');
+  const tooLarge = () => new AppError('payload_too_large', `request body is larger than ${maxBytes} bytes`);
+  if (declared > maxBytes) throw tooLarge();
+  if (!req.body) return '';
+  const reader = req.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > maxBytes) {
+      await reader.cancel().catch(() => undefined);
+      throw tooLarge();
+    }
+    chunks.push(value);
+  }
+  const bytes = new Uint8Array(total);
+  let at = 0;
+  for (const c of chunks) {
+    bytes.set(c, at);
+    at += c.byteLength;
+  }
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    throw new AppError('bad_json', 'request body is not valid UTF-8');
+  }
+}
+
+function isJsonType(contentType: string | null): boolean {
+  if (!contentType) return false;
+  const mime = contentType.split(';')[0].trim().toLowerCase();
+  return mime === 'application/json' || mime.endsWith('+json');
+}
+
+async function parseBody(req: NextRequest, schema: z.ZodType): Promise<unknown> {
+  const text = await readBodyText(req);
+  let raw: unknown = {};
+  if (text.trim() !== '') {
+    if (!isJsonType(req.headers.get('content-type'))) {
+      throw new AppError('unsupported_media_type', 'send the body as application/json');
+    }
+    try {
+      raw = JSON.parse(text);
+    } catch {
+      throw new AppError('bad_json', 'request body is not valid JSON');
+    }
+  }
+  const parsed = schema.safeParse(raw);
+  if (!parsed.success) throw zodError(parsed.error);
+  return parsed.data;
+}
+
+/**
+ * Wrap a route function. Path parameters whose name ends in `Id` must be UUIDs (else 404, as
+ * for any unknown id). The function returns the response body (sent as JSON with
+ * `options.status`) or a ready Response.
+ */
+export function route<P extends Params = Params, BS extends Schema = undefined, QS extends Schema = undefined>(
+  options: RouteOptions<BS, QS>,
+  fn: (ctx: RouteContext<P, Out<BS>, Out<QS>>) => Promise<unknown>,
+): NextRouteHandler<P> {
+  return async (req, ctx) => {
+    const where = `${req.method} ${req.nextUrl.pathname}`;
+    try {
+      const params = ((await ctx?.params) ?? {}) as P;
+      for (const [key, value] of Object.entries(params)) {
+        if (key.endsWith('Id') && !UUID_RE.test(value)) throw notFound(key.slice(0, -2));
+      }
+      let query: unknown = undefined;
+      if (options.query) {
+        const parsed = options.query.safeParse(Object.fromEntries(req.nextUrl.searchParams));
+        if (!parsed.success) throw zodError(parsed.error);
+        query = parsed.data;
+      }
+      const body = options.body ? await parseBody(req, options.body) : undefined;
+      const result = await fn({ req, params, body: body as Out<BS>, query: query as Out<QS> });
+      return result instanceof Response ? result : json(result, options.status ?? 200);
+    } catch (e) {
+      return errorResponse(e, where);
+    }
+  };
+}
