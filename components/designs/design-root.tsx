@@ -1,0 +1,203 @@
+'use client';
+
+import Link from 'next/link';
+import { useRouter } from 'next/navigation';
+import { useState } from 'react';
+import { Button } from '@/components/ui/button';
+import { Badge, Notice, Panel, Skeleton } from '@/components/ui/notice';
+import type { DesignDetailDto } from '@/lib/api/contract';
+import { ApiError, formError } from '@/lib/client/api';
+import { formatDateTime, statusLabel } from '@/lib/client/format';
+import { useDesign, useForkDesign, useRevision, useRevisions, useUpdateDesign } from '@/lib/client/hooks';
+import { DocumentSummaryView } from './document-summary-view';
+
+function Actions({ design }: { design: DesignDetailDto }) {
+  const router = useRouter();
+  const fork = useForkDesign(design.id);
+  const update = useUpdateDesign(design.id);
+  const p = design.permissions;
+  const error = fork.error ?? update.error;
+  return (
+    <div className="space-y-2">
+      <div className="flex flex-wrap gap-2">
+        {p.fork ? (
+          <Button
+            data-testid="fork-design"
+            pending={fork.isPending}
+            pendingLabel="Forking…"
+            onClick={() => fork.mutate({}, { onSuccess: (res) => router.push(`/designs/${res.design.id}`) })}
+          >
+            Fork
+          </Button>
+        ) : null}
+        {p.share ? (
+          <Button
+            variant="secondary"
+            data-testid="toggle-visibility"
+            pending={update.isPending && update.variables?.visibility !== undefined}
+            disabled={update.isPending}
+            onClick={() => update.mutate({ visibility: design.visibility === 'team' ? 'private' : 'team' })}
+          >
+            {design.visibility === 'team' ? 'Make private' : 'Share with team'}
+          </Button>
+        ) : null}
+        {p.archive ? (
+          <Button
+            variant="danger"
+            data-testid="toggle-archive"
+            disabled={update.isPending}
+            onClick={() => {
+              if (design.archived || window.confirm('Archive this design? It leaves the list but stays readable.')) update.mutate({ archived: !design.archived });
+            }}
+          >
+            {design.archived ? 'Unarchive' : 'Archive'}
+          </Button>
+        ) : null}
+      </div>
+      {error ? <Notice tone="error">{formError(error)}</Notice> : null}
+    </div>
+  );
+}
+
+function Revisions({ designId, latest, selected, onSelect }: { designId: string; latest: number; selected: number; onSelect: (n: number) => void }) {
+  const revisions = useRevisions(designId);
+  if (revisions.isPending) return <Skeleton lines={3} />;
+  if (revisions.isError) return <Notice tone="error">{formError(revisions.error)}</Notice>;
+  return (
+    <ol className="space-y-1" data-testid="revision-list">
+      {revisions.data.revisions.map((r) => (
+        <li key={r.number}>
+          <button
+            type="button"
+            onClick={() => onSelect(r.number)}
+            aria-current={r.number === selected ? 'true' : undefined}
+            data-testid="revision-item"
+            className={`w-full rounded-md border px-3 py-2 text-left text-sm ${r.number === selected ? 'border-lagoon-400 bg-lagoon-800/30' : 'border-ink-800 hover:border-ink-600'}`}
+          >
+            <span className="flex items-center justify-between gap-2">
+              <span className="font-medium text-ink-50">
+                r{r.number}
+                {r.number === latest ? <span className="ml-2 text-xs font-normal text-lagoon-400">latest</span> : null}
+              </span>
+              <span className="text-xs text-ink-400">{formatDateTime(r.createdAt)}</span>
+            </span>
+            <span className="block truncate text-ink-200">{r.message || 'No message'}</span>
+            <span className="block text-xs text-ink-400">{r.author.name || r.author.email}</span>
+          </button>
+        </li>
+      ))}
+    </ol>
+  );
+}
+
+/** The design page shell: header, lineage, stored document summary, revision history and actions. */
+export function DesignRoot({ designId }: { designId: string }) {
+  const design = useDesign(designId);
+  const [chosen, setChosen] = useState<number | null>(null);
+  const latestNumber = design.data?.revision.number ?? null;
+  const showing = chosen !== null && chosen !== latestNumber ? chosen : null;
+  const other = useRevision(designId, showing);
+
+  if (design.isPending) return <Skeleton lines={6} />;
+  if (design.isError) {
+    const missing = design.error instanceof ApiError && design.error.status === 404;
+    return (
+      <Notice tone="error" testId="design-error">
+        {missing ? 'This design does not exist, or you do not have access to it.' : formError(design.error)}
+      </Notice>
+    );
+  }
+  const d = design.data.design;
+  const rev = showing !== null && other.data ? other.data.revision : design.data.revision;
+  const selected = showing ?? design.data.revision.number;
+
+  return (
+    <div className="space-y-5">
+      <div className="flex flex-wrap items-start justify-between gap-4">
+        <div className="space-y-1">
+          <p className="text-sm text-ink-400">
+            <Link href={`/teams/${d.teamId}`} className="rounded hover:text-lagoon-400">
+              ← Team designs
+            </Link>
+          </p>
+          <h1 className="text-2xl font-semibold text-ink-50" data-testid="design-title">
+            {d.title}
+          </h1>
+          <div className="flex flex-wrap items-center gap-2 text-sm text-ink-400">
+            <Badge tone={d.status === 'approved' ? 'result' : 'neutral'} testId="design-status">
+              {statusLabel(d.status)}
+            </Badge>
+            <Badge testId="design-visibility">{d.visibility === 'team' ? 'shared with team' : 'private'}</Badge>
+            {d.archived ? <Badge tone="warn">archived</Badge> : null}
+            <span>
+              by {d.author.name || d.author.email} · r{d.latestRevision} · updated {formatDateTime(d.updatedAt)}
+            </span>
+          </div>
+          {d.forkedFrom ? (
+            <p className="text-sm text-ink-200" data-testid="forked-from">
+              Forked from{' '}
+              <Link href={`/designs/${d.forkedFrom.designId}`} className="rounded text-lagoon-400 hover:underline">
+                {d.forkedFrom.title}
+              </Link>{' '}
+              at r{d.forkedFrom.revision}
+            </p>
+          ) : null}
+          {d.description ? <p className="max-w-3xl text-sm text-ink-200">{d.description}</p> : null}
+        </div>
+        <Actions design={d} />
+      </div>
+
+      <div className="grid gap-5 lg:grid-cols-[1fr_20rem]">
+        <div className="space-y-5">
+          <Panel
+            title={
+              <span>
+                Stored document, r{rev.number}
+                {rev.number !== d.latestRevision ? <span className="ml-2 text-sm font-normal text-copper-400">older revision</span> : null}
+              </span>
+            }
+            testId="summary-panel"
+          >
+            {showing !== null && other.isPending ? <Skeleton lines={4} /> : null}
+            {showing !== null && other.isError ? <Notice tone="error">{formError(other.error)}</Notice> : null}
+            {showing === null || other.data ? (
+              <>
+                <DocumentSummaryView document={rev.document} topology={rev.number === d.latestRevision ? d.topology : undefined} />
+                <p className="mt-4 text-xs text-ink-400">
+                  Saved by {rev.author.name || rev.author.email} on {formatDateTime(rev.createdAt)}
+                  {rev.message ? `: “${rev.message}”` : ''}. The drawing canvas for editing comes in a later release.
+                </p>
+              </>
+            ) : null}
+          </Panel>
+
+          {d.forks.length > 0 ? (
+            <Panel title="Forks" testId="forks-panel">
+              <ul className="space-y-1 text-sm">
+                {d.forks.map((f) => (
+                  <li key={f.designId}>
+                    <Link href={`/designs/${f.designId}`} className="rounded text-lagoon-400 hover:underline">
+                      {f.title}
+                    </Link>{' '}
+                    <span className="text-ink-400">
+                      by {f.author.name || f.author.email}, from r{f.revision}
+                    </span>
+                  </li>
+                ))}
+              </ul>
+            </Panel>
+          ) : null}
+
+          <p className="rounded-md border border-copper-600 bg-copper-800/30 px-4 py-3 text-sm text-copper-100" data-testid="design-caution">
+            The numbers here describe a circuit that can hold a lethal charge. Treat every stage as live until it is
+            discharged and measured, and have the build checked against your local codes by licensed people.
+          </p>
+        </div>
+
+        <Panel title="Revision history">
+          <Revisions designId={designId} latest={d.latestRevision} selected={selected} onSelect={setChosen} />
+        </Panel>
+      </div>
+    </div>
+  );
+}
