@@ -1,0 +1,54 @@
+import { expect, test } from '@playwright/test';
+import { freshEmail } from './support/mail';
+import { SignInPage, TeamDesignsPage, TeamsPage } from './support/pages';
+
+// Seeded demo users (scripts/seed.ts); the password is the one the README and `npm run app` print.
+const DEMO_PASSWORD = 'kilorung-demo-1';
+const TEAM = 'Tallgrass Instruments';
+
+test('a designer signs in with a password and sees the Tallgrass designs', async ({ page }) => {
+  await new SignInPage(page).withPassword('dev.designer@tallgrass.test', DEMO_PASSWORD);
+  const teams = new TeamsPage(page);
+  await teams.expectLoaded();
+  await teams.openTeam(TEAM);
+  const designs = new TeamDesignsPage(page);
+  await expect(designs.rows().first()).toBeVisible();
+  expect(await designs.rows().count()).toBeGreaterThanOrEqual(3);
+  // The seeded fork shows its parent in the table.
+  await expect(designs.rows().filter({ has: page.locator('td:nth-child(7) a') })).not.toHaveCount(0);
+  await expect(page.getByTestId('new-design')).toBeVisible();
+
+  // Search narrows the list.
+  const firstTitle = (await page.getByTestId('design-link').first().textContent())?.trim() ?? '';
+  await page.getByTestId('design-search').fill(firstTitle);
+  await expect(designs.rows().filter({ hasText: firstTitle }).first()).toBeVisible();
+
+  await designs.openDesign(firstTitle);
+  await expect(page.getByTestId('fork-design')).toBeVisible();
+});
+
+test('a viewer sees the designs but no New design or Fork buttons', async ({ page }) => {
+  await new SignInPage(page).withPassword('val.viewer@tallgrass.test', DEMO_PASSWORD);
+  const teams = new TeamsPage(page);
+  await teams.openTeam(TEAM);
+  const designs = new TeamDesignsPage(page);
+  await expect(designs.rows().first()).toBeVisible();
+  await expect(page.getByText('You are a viewer here.')).toBeVisible();
+  await expect(page.getByTestId('new-design')).toHaveCount(0);
+
+  const title = (await page.getByTestId('design-link').first().textContent())?.trim() ?? '';
+  await designs.openDesign(title);
+  await expect(page.getByTestId('document-summary')).toBeVisible();
+  await expect(page.getByTestId('fork-design')).toHaveCount(0);
+  await expect(page.getByTestId('toggle-archive')).toHaveCount(0);
+});
+
+// A fresh address, so repeated runs never push a demo account into the failed sign-in limit.
+test('a wrong password is refused with a message', async ({ page }) => {
+  await page.goto('/signin');
+  await page.getByLabel('E-mail', { exact: true }).fill(freshEmail('nobody'));
+  await page.getByLabel('Password', { exact: true }).fill('not-the-password');
+  await page.getByTestId('password-signin-submit').click();
+  await expect(page.getByTestId('signin-error')).toContainText('do not match');
+  await expect(page).toHaveURL(/\/signin/);
+});
