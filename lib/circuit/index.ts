@@ -12,3 +12,4 @@ export * from './estimates/full-wave';
 export * from './estimates/bipolar';
 export * from './estimates/stresses';
 export * from './estimates/estimate';
+export * from './measures/safety';
