@@ -1,12 +1,11 @@
-import { getServerSession } from 'next-auth';
 import { redirect } from 'next/navigation';
 import { ButtonLink } from '@/components/ui/button';
 import { Wordmark } from '@/components/wordmark';
-import { authOptions } from '@/lib/auth/options';
+import { getSessionUser } from '@/lib/auth/session';
 
 export default async function LandingPage() {
-  const session = await getServerSession(authOptions);
-  if (session?.user) redirect('/teams');
+  const user = await getSessionUser();
+  if (user) redirect('/teams');
   return (
     <main id="main" className="mx-auto flex w-full max-w-4xl flex-1 flex-col justify-center gap-10 px-6 py-16">
       <Wordmark size="lg" />

@@ -1,11 +1,10 @@
-import { getServerSession } from 'next-auth';
 import type { ReactNode } from 'react';
 import { AppHeader } from '@/components/shell/app-header';
-import { authOptions } from '@/lib/auth/options';
+import { getSessionUser } from '@/lib/auth/session';
 
 export default async function AppLayout({ children }: { children: ReactNode }) {
-  const session = await getServerSession(authOptions);
-  const label = session?.user?.name || session?.user?.email || '';
+  const user = await getSessionUser();
+  const label = user?.name || user?.email || '';
   return (
     <>
       <AppHeader userLabel={label} />

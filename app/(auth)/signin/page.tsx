@@ -1,10 +1,9 @@
 import type { Metadata } from 'next';
-import { getServerSession } from 'next-auth';
 import { redirect } from 'next/navigation';
 import { AuthCard } from '@/components/auth/auth-card';
 import { safeCallbackUrl } from '@/components/auth/safe-callback';
 import { SignInForms } from '@/components/auth/sign-in-forms';
-import { authOptions } from '@/lib/auth/options';
+import { getSessionUser } from '@/lib/auth/session';
 
 export const metadata: Metadata = { title: 'Sign in' };
 
@@ -17,8 +16,8 @@ function one(v: string | string[] | undefined): string | undefined {
 export default async function SignInPage({ searchParams }: { searchParams: Search }) {
   const sp = await searchParams;
   const callbackUrl = one(sp.callbackUrl);
-  const session = await getServerSession(authOptions);
-  if (session?.user) redirect(safeCallbackUrl(callbackUrl));
+  const user = await getSessionUser();
+  if (user) redirect(safeCallbackUrl(callbackUrl));
   return (
     <AuthCard title="Sign in to Kilorung">
       <SignInForms callbackUrl={callbackUrl} initialError={one(sp.error)} />
