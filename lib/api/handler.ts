@@ -10,17 +10,23 @@ import { z } from 'zod';
 import { UniqueConstraintError } from 'sequelize';
 import { MAX_BODY_BYTES } from './contract';
 import { AppError, notFound } from '../errors';
+import { requireUser, type SessionUser } from '../auth/session';
 
 type Params = Record<string, string>;
 type Schema = z.ZodType | undefined;
 type Out<S extends Schema> = S extends z.ZodType ? z.output<S> : undefined;
 
-/** What a route's function receives. */
-export interface RouteContext<P extends Params, B, Q> {
+/** What a public route's function receives. */
+export interface PublicRouteContext<P extends Params, B, Q> {
   req: NextRequest;
   params: P;
   body: B;
   query: Q;
+}
+
+/** What a signed-in route's function receives: also the caller (checked before the body is read). */
+export interface RouteContext<P extends Params, B, Q> extends PublicRouteContext<P, B, Q> {
+  user: SessionUser;
 }
 
 /** How a route reads its input and answers. */
@@ -117,18 +123,15 @@ async function parseBody(req: NextRequest, schema: z.ZodType): Promise<unknown> 
   return parsed.data;
 }
 
-/**
- * Wrap a route function. Path parameters whose name ends in `Id` must be UUIDs (else 404, as
- * for any unknown id). The function returns the response body (sent as JSON with
- * `options.status`) or a ready Response.
- */
-export function route<P extends Params = Params, BS extends Schema = undefined, QS extends Schema = undefined>(
+function wrap<P extends Params, BS extends Schema, QS extends Schema>(
   options: RouteOptions<BS, QS>,
+  signedIn: boolean,
   fn: (ctx: RouteContext<P, Out<BS>, Out<QS>>) => Promise<unknown>,
 ): NextRouteHandler<P> {
   return async (req, ctx) => {
     const where = `${req.method} ${req.nextUrl.pathname}`;
     try {
+      const user = signedIn ? await requireUser(req) : (null as unknown as SessionUser);
       const params = ((await ctx?.params) ?? {}) as P;
       for (const [key, value] of Object.entries(params)) {
         if (key.endsWith('Id') && !UUID_RE.test(value)) throw notFound(key.slice(0, -2));
@@ -140,10 +143,30 @@ export function route<P extends Params = Params, BS extends Schema = undefined, 
         query = parsed.data;
       }
       const body = options.body ? await parseBody(req, options.body) : undefined;
-      const result = await fn({ req, params, body: body as Out<BS>, query: query as Out<QS> });
+      const result = await fn({ req, params, body: body as Out<BS>, query: query as Out<QS>, user });
       return result instanceof Response ? result : json(result, options.status ?? 200);
     } catch (e) {
       return errorResponse(e, where);
     }
   };
+}
+
+/**
+ * Wrap a route function for signed-in callers (401 first, before any input is read). Path
+ * parameters whose name ends in `Id` must be UUIDs (else 404, as for any unknown id). The
+ * function returns the response body (sent as JSON with `options.status`) or a ready Response.
+ */
+export function route<P extends Params = Params, BS extends Schema = undefined, QS extends Schema = undefined>(
+  options: RouteOptions<BS, QS>,
+  fn: (ctx: RouteContext<P, Out<BS>, Out<QS>>) => Promise<unknown>,
+): NextRouteHandler<P> {
+  return wrap(options, true, fn);
+}
+
+/** Like `route`, for routes that anyone may call (sign-up, invitation preview). */
+export function publicRoute<P extends Params = Params, BS extends Schema = undefined, QS extends Schema = undefined>(
+  options: RouteOptions<BS, QS>,
+  fn: (ctx: PublicRouteContext<P, Out<BS>, Out<QS>>) => Promise<unknown>,
+): NextRouteHandler<P> {
+  return wrap(options, false, fn);
 }

@@ -1,0 +1,316 @@
+/**
+ * Designs and revisions.
+ *
+ * Who sees what: a design is visible to members of its team when its visibility is 'team', and
+ * to its author alone when 'private'; for everyone else it does not exist (404). Owners and
+ * designers create, save and fork; owners, and designers on their own designs, share and
+ * archive; reviewers and viewers read.
+ *
+ * Saving: a save names the revision it started from. Inside one transaction a conditional
+ * `UPDATE designs SET latest_revision = latest_revision + 1 WHERE id = ? AND latest_revision = base`
+ * claims the next number; PostgreSQL's row lock makes a concurrent save on the same base wait
+ * and then match no row, so exactly one wins and the other answers 409 with the current number
+ * and writes nothing. Revisions are only ever inserted (a trigger refuses UPDATE).
+ */
+import 'server-only';
+import { Op, QueryTypes, type Transaction, type WhereOptions } from 'sequelize';
+import type { z } from 'zod';
+import type {
+  DesignDetailDto,
+  DesignSummaryDto,
+  RevisionDto,
+  RevisionSummaryDto,
+  Role,
+  createDesignSchema,
+  designListQuerySchema,
+  forkSchema,
+  saveRevisionSchema,
+  updateDesignSchema,
+} from '../api/contract';
+import { designDocumentSchema, type DesignDocument } from '../circuit/document/schema';
+import { db } from '../db';
+import { AppError, conflict, forbidden, notFound } from '../errors';
+import type { Design, DesignRevision } from '../../models';
+import { canWrite, loadCaller, requireMember, requireRole, WRITER_ROLES, type Caller } from './access';
+import { revisionSummaryDto, userDto } from './dto';
+import { summariseTopology } from './topology';
+
+type CreateInput = z.output<typeof createDesignSchema>;
+type UpdateInput = z.output<typeof updateDesignSchema>;
+type SaveInput = z.output<typeof saveRevisionSchema>;
+type ForkInput = z.output<typeof forkSchema>;
+type ListQuery = z.output<typeof designListQuerySchema>;
+
+function readable(caller: Caller, d: Pick<Design, 'teamId' | 'visibility' | 'authorId'>): boolean {
+  return caller.roles.has(d.teamId) && (d.visibility === 'team' || d.authorId === caller.userId);
+}
+
+/** May the caller share/unshare and archive `d`? Owners always; designers on their own designs. */
+function canManage(role: Role, caller: Caller, d: Design): boolean {
+  return role === 'owner' || (role === 'designer' && d.authorId === caller.userId);
+}
+
+const includeForList = () => {
+  const { User, Design: D } = db().models;
+  return [
+    { model: User, as: 'author' },
+    { model: D, as: 'forkedFrom', attributes: ['id', 'title', 'teamId', 'visibility', 'authorId'] },
+  ];
+};
+
+function summaryDto(caller: Caller, d: Design): DesignSummaryDto {
+  const parent = d.forkedFrom;
+  return {
+    id: d.id,
+    teamId: d.teamId,
+    title: d.title,
+    description: d.description,
+    author: userDto(d.author),
+    topology: d.topology,
+    stages: d.stages,
+    status: d.status,
+    visibility: d.visibility,
+    archived: d.archivedAt !== null,
+    latestRevision: d.latestRevision,
+    createdAt: d.createdAt.toISOString(),
+    updatedAt: d.updatedAt.toISOString(),
+    forkedFrom:
+      d.forkedFromDesignId && d.forkedFromRevision
+        ? {
+            designId: d.forkedFromDesignId,
+            // the parent's title only for those who may see the parent
+            title: parent && readable(caller, parent) ? parent.title : 'a design you cannot see',
+            revision: d.forkedFromRevision,
+          }
+        : null,
+  };
+}
+
+async function detailDto(caller: Caller, d: Design): Promise<DesignDetailDto> {
+  const role = caller.roles.get(d.teamId) as Role;
+  const { Design: D, User } = db().models;
+  const forks = await D.findAll({ where: { forkedFromDesignId: d.id }, include: [{ model: User, as: 'author' }], order: [['createdAt', 'ASC']] });
+  return {
+    ...summaryDto(caller, d),
+    permissions: {
+      edit: canWrite(role) && d.archivedAt === null,
+      fork: canWrite(role),
+      share: canManage(role, caller, d),
+      archive: canManage(role, caller, d),
+    },
+    forks: forks
+      .filter((f) => readable(caller, f))
+      .map((f) => ({ designId: f.id, title: f.title, author: userDto(f.author), revision: f.forkedFromRevision ?? 1 })),
+  };
+}
+
+/** Load a design the caller may read, with author and parent; 404 otherwise. */
+async function loadReadable(caller: Caller, designId: string, transaction?: Transaction): Promise<Design> {
+  const d = await db().models.Design.findByPk(designId, { include: includeForList(), transaction });
+  if (!d || !readable(caller, d)) throw notFound('design');
+  return d;
+}
+
+/** Validate a stored document on its way out; a failure is a broken invariant, not bad input. */
+function checkedDocument(r: DesignRevision): DesignDocument {
+  const parsed = designDocumentSchema.safeParse(r.document);
+  if (!parsed.success) throw new Error(`stored revision ${r.designId} r${r.number} fails the document schema: ${parsed.error.issues[0]?.message}`);
+  return parsed.data;
+}
+
+async function insertRevision(
+  designId: string,
+  number: number,
+  document: DesignDocument,
+  authorId: string,
+  message: string,
+  transaction: Transaction,
+): Promise<DesignRevision> {
+  const { DesignRevision: R, User } = db().models;
+  const r = await R.create({ designId, number, document, authorId, message }, { transaction });
+  r.author = (await User.findByPk(authorId, { transaction })) ?? undefined;
+  return r;
+}
+
+/** The team's designs the caller may see, filtered and sorted. */
+export async function listDesigns(userId: string, teamId: string, query: ListQuery): Promise<DesignSummaryDto[]> {
+  const caller = await loadCaller(userId);
+  requireMember(caller, teamId);
+  const { Design: D, User } = db().models;
+  const and: WhereOptions[] = [
+    { teamId },
+    { [Op.or]: [{ visibility: 'team' }, { authorId: userId }] },
+    { archivedAt: query.archived === 'true' ? { [Op.ne]: null } : null },
+  ];
+  if (query.q && query.q.trim()) {
+    const like = `%${query.q.trim().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    and.push({ [Op.or]: [{ title: { [Op.iLike]: like } }, { description: { [Op.iLike]: like } }] });
+  }
+  const order: Record<NonNullable<ListQuery['sort']>, [unknown, string][]> = {
+    updated: [['updatedAt', 'DESC']],
+    title: [['title', 'ASC']],
+    author: [[{ model: User, as: 'author' }, 'name', 'ASC'] as unknown as [unknown, string], ['title', 'ASC']],
+    status: [['status', 'ASC'], ['updatedAt', 'DESC']],
+  };
+  const rows = await D.findAll({
+    where: { [Op.and]: and },
+    include: includeForList(),
+    order: order[query.sort ?? 'updated'] as never,
+    limit: 500,
+  });
+  return rows.map((d) => summaryDto(caller, d));
+}
+
+/** Create a design with its first revision (owners and designers). */
+export async function createDesign(userId: string, teamId: string, input: CreateInput): Promise<{ design: DesignDetailDto; revision: RevisionSummaryDto }> {
+  const caller = await loadCaller(userId);
+  requireRole(caller, teamId, WRITER_ROLES);
+  const { sequelize, models } = db();
+  const { topology, stages } = summariseTopology(input.document);
+  const { designId, revision } = await sequelize.transaction(async (transaction) => {
+    const d = await models.Design.create(
+      {
+        teamId,
+        authorId: userId,
+        title: input.title,
+        description: input.description ?? '',
+        visibility: input.visibility ?? 'team',
+        archivedAt: null,
+        forkedFromDesignId: null,
+        forkedFromRevision: null,
+        latestRevision: 1,
+        topology,
+        stages,
+      },
+      { transaction },
+    );
+    const r = await insertRevision(d.id, 1, input.document, userId, input.message ?? 'First revision', transaction);
+    return { designId: d.id, revision: r };
+  });
+  const design = await detailDto(caller, await loadReadable(caller, designId));
+  return { design, revision: revisionSummaryDto(revision) };
+}
+
+/** A design with its latest revision's document. */
+export async function getDesign(userId: string, designId: string): Promise<{ design: DesignDetailDto; revision: RevisionDto }> {
+  const caller = await loadCaller(userId);
+  const d = await loadReadable(caller, designId);
+  const revision = await getRevisionOf(d, d.latestRevision);
+  return { design: await detailDto(caller, d), revision };
+}
+
+/**
+ * Change title/description (owners and designers), visibility and archived state (owners;
+ * designers on their own designs). An archived design takes no edits but its archived flag.
+ */
+export async function updateDesign(userId: string, designId: string, input: UpdateInput): Promise<DesignDetailDto> {
+  const caller = await loadCaller(userId);
+  const d = await loadReadable(caller, designId);
+  const role = caller.roles.get(d.teamId) as Role;
+  if (!canWrite(role)) throw forbidden(`a ${role} cannot change designs`);
+  const manages = canManage(role, caller, d);
+  if ((input.visibility !== undefined || input.archived !== undefined) && !manages) {
+    throw forbidden("only the team's owners and the design's author can share, unshare or archive it");
+  }
+  const editsContent = input.title !== undefined || input.description !== undefined;
+  const willBeArchived = input.archived ?? d.archivedAt !== null;
+  if (editsContent && willBeArchived) throw conflict('this design is archived; restore it before editing');
+  if (input.title !== undefined) d.title = input.title;
+  if (input.description !== undefined) d.description = input.description;
+  if (input.visibility !== undefined) d.visibility = input.visibility;
+  if (input.archived !== undefined) d.archivedAt = input.archived ? (d.archivedAt ?? new Date()) : null;
+  await d.save();
+  return detailDto(caller, await loadReadable(caller, designId));
+}
+
+/** Revision metadata, newest first. */
+export async function listRevisions(userId: string, designId: string): Promise<RevisionSummaryDto[]> {
+  const caller = await loadCaller(userId);
+  await loadReadable(caller, designId);
+  const { DesignRevision: R, User } = db().models;
+  const rows = await R.findAll({ where: { designId }, attributes: { exclude: ['document'] }, include: [{ model: User, as: 'author' }], order: [['number', 'DESC']] });
+  return rows.map(revisionSummaryDto);
+}
+
+async function getRevisionOf(d: Design, number: number): Promise<RevisionDto> {
+  const { DesignRevision: R, User } = db().models;
+  const r = await R.findOne({ where: { designId: d.id, number }, include: [{ model: User, as: 'author' }] });
+  if (!r) throw notFound('revision');
+  return { ...revisionSummaryDto(r), document: checkedDocument(r) };
+}
+
+/** One revision with its document. `number` comes from the path (digits only, else 404). */
+export async function getRevision(userId: string, designId: string, number: string): Promise<RevisionDto> {
+  if (!/^[1-9][0-9]{0,8}$/.test(number)) throw notFound('revision');
+  const caller = await loadCaller(userId);
+  const d = await loadReadable(caller, designId);
+  return getRevisionOf(d, Number(number));
+}
+
+/** Save a new revision on top of `baseRevision` (owners and designers); stale base → 409. */
+export async function saveRevision(userId: string, designId: string, input: SaveInput): Promise<RevisionSummaryDto> {
+  const caller = await loadCaller(userId);
+  const d = await loadReadable(caller, designId);
+  requireRole(caller, d.teamId, WRITER_ROLES, 'design');
+  if (d.archivedAt) throw conflict('this design is archived; restore it before saving');
+  const { topology, stages } = summariseTopology(input.document);
+  const { sequelize } = db();
+  return sequelize.transaction(async (transaction) => {
+    const claimed = await sequelize.query<{ latest_revision: number }>(
+      `UPDATE designs SET latest_revision = latest_revision + 1, topology = :topology, stages = :stages, updated_at = now()
+       WHERE id = :id AND latest_revision = :base AND archived_at IS NULL RETURNING latest_revision`,
+      { replacements: { id: designId, base: input.baseRevision, topology, stages }, type: QueryTypes.SELECT, transaction },
+    );
+    if (claimed.length === 0) {
+      const current = await sequelize.query<{ latest_revision: number }>('SELECT latest_revision FROM designs WHERE id = :id', {
+        replacements: { id: designId },
+        type: QueryTypes.SELECT,
+        transaction,
+      });
+      const latest = current[0]?.latest_revision ?? d.latestRevision;
+      throw new AppError('conflict', `revision ${input.baseRevision} is not the latest (${latest} is); reload, merge your changes and save again`, {
+        latestRevision: latest,
+      });
+    }
+    const number = claimed[0].latest_revision;
+    const r = await insertRevision(designId, number, input.document, userId, input.message ?? '', transaction);
+    return revisionSummaryDto(r);
+  });
+}
+
+/**
+ * Fork: copy revision `revision` (default latest) of a design the caller can read into a new
+ * design they author in `teamId` (default the parent's team, where they must be owner or
+ * designer). The parent is not touched.
+ */
+export async function forkDesign(userId: string, designId: string, input: ForkInput): Promise<DesignDetailDto> {
+  const caller = await loadCaller(userId);
+  const parent = await loadReadable(caller, designId);
+  const teamId = input.teamId ?? parent.teamId;
+  requireRole(caller, teamId, WRITER_ROLES);
+  const number = input.revision ?? parent.latestRevision;
+  const source = await getRevisionOf(parent, number);
+  const { sequelize, models } = db();
+  const { topology, stages } = summariseTopology(source.document);
+  const forkId = await sequelize.transaction(async (transaction) => {
+    const f = await models.Design.create(
+      {
+        teamId,
+        authorId: userId,
+        title: input.title ?? `${parent.title} (fork)`.slice(0, 120),
+        description: parent.description,
+        visibility: 'team',
+        archivedAt: null,
+        forkedFromDesignId: parent.id,
+        forkedFromRevision: number,
+        latestRevision: 1,
+        topology,
+        stages,
+      },
+      { transaction },
+    );
+    await insertRevision(f.id, 1, source.document, userId, `Forked from ${parent.title} r${number}`.slice(0, 500), transaction);
+    return f.id;
+  });
+  return detailDto(caller, await loadReadable(caller, forkId));
+}
