@@ -365,7 +365,7 @@ export function recognizeTopology(netlist: Netlist): TopologyReport {
     for (const l of ladders) {
       if (l.loadCurrentA <= 0) continue;
       const caps = capsOf(netlist, l);
-      if (!caps) continue;
+      if (!caps || ![...caps.pumpC, ...caps.smoothC].every((c) => c > 0 && Number.isFinite(c)) || !(l.frequencyHz > 0)) continue;
       const est = estimateLadder({
         topology: l.variant,
         stages: l.stages,
