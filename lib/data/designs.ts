@@ -3,8 +3,8 @@
  *
  * Who sees what: a design is visible to members of its team when its visibility is 'team', and
  * to its author alone when 'private'; for everyone else it does not exist (404). Owners and
- * designers create, save and fork; owners, and designers on their own designs, share and
- * archive; reviewers and viewers read.
+ * designers create, save and fork; the author shares or unshares; owners, and designers on their
+ * own designs, archive; reviewers and viewers read.
  *
  * Saving: a save names the revision it started from. Inside one transaction a conditional
  * `UPDATE designs SET latest_revision = latest_revision + 1 WHERE id = ? AND latest_revision = base`
@@ -45,9 +45,17 @@ function readable(caller: Caller, d: Pick<Design, 'teamId' | 'visibility' | 'aut
   return caller.roles.has(d.teamId) && (d.visibility === 'team' || d.authorId === caller.userId);
 }
 
-/** May the caller share/unshare and archive `d`? Owners always; designers on their own designs. */
+/** May the caller archive `d`? Owners always; designers their own designs. */
 function canManage(role: Role, caller: Caller, d: Design): boolean {
   return role === 'owner' || (role === 'designer' && d.authorId === caller.userId);
+}
+
+/**
+ * May the caller change `d`'s visibility? Only its author (owner or designer): making a
+ * colleague's design private would hide it from everyone but that colleague, the caller included.
+ */
+function canShare(role: Role, caller: Caller, d: Design): boolean {
+  return canWrite(role) && d.authorId === caller.userId;
 }
 
 const includeForList = () => {
@@ -95,7 +103,7 @@ async function detailDto(caller: Caller, d: Design): Promise<DesignDetailDto> {
     permissions: {
       edit: canWrite(role) && d.archivedAt === null,
       fork: canWrite(role),
-      share: canManage(role, caller, d),
+      share: canShare(role, caller, d),
       archive: canManage(role, caller, d),
     },
     forks: forks
@@ -200,17 +208,19 @@ export async function getDesign(userId: string, designId: string): Promise<{ des
 }
 
 /**
- * Change title/description (owners and designers), visibility and archived state (owners;
- * designers on their own designs). An archived design takes no edits but its archived flag.
+ * Change title/description (owners and designers), visibility (the author) and archived state
+ * (owners; designers on their own designs). An archived design takes no edits but its archived flag.
  */
 export async function updateDesign(userId: string, designId: string, input: UpdateInput): Promise<DesignDetailDto> {
   const caller = await loadCaller(userId);
   const d = await loadReadable(caller, designId);
   const role = caller.roles.get(d.teamId) as Role;
   if (!canWrite(role)) throw forbidden(`a ${role} cannot change designs`);
-  const manages = canManage(role, caller, d);
-  if ((input.visibility !== undefined || input.archived !== undefined) && !manages) {
-    throw forbidden("only the team's owners and the design's author can share, unshare or archive it");
+  if (input.visibility !== undefined && !canShare(role, caller, d)) {
+    throw forbidden("only the design's author can share it with the team or make it private");
+  }
+  if (input.archived !== undefined && !canManage(role, caller, d)) {
+    throw forbidden("only the team's owners and the design's author can archive or restore it");
   }
   const editsContent = input.title !== undefined || input.description !== undefined;
   const willBeArchived = input.archived ?? d.archivedAt !== null;

@@ -1,0 +1,293 @@
+/**
+ * Every route × every caller (owner, designer, reviewer, viewer, outsider, signed out) against
+ * the real database. Each case prepares its own fresh target so that a mutation in one row
+ * cannot change the answer of another.
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import * as me from '@/app/api/me/route';
+import * as teams from '@/app/api/teams/route';
+import * as team from '@/app/api/teams/[teamId]/route';
+import * as members from '@/app/api/teams/[teamId]/members/route';
+import * as member from '@/app/api/teams/[teamId]/members/[userId]/route';
+import * as invitations from '@/app/api/teams/[teamId]/invitations/route';
+import * as invitation from '@/app/api/teams/[teamId]/invitations/[invitationId]/route';
+import * as preview from '@/app/api/invitations/[token]/route';
+import * as accept from '@/app/api/invitations/[token]/accept/route';
+import * as teamDesigns from '@/app/api/teams/[teamId]/designs/route';
+import * as design from '@/app/api/designs/[designId]/route';
+import * as revisions from '@/app/api/designs/[designId]/revisions/route';
+import * as revision from '@/app/api/designs/[designId]/revisions/[number]/route';
+import * as fork from '@/app/api/designs/[designId]/fork/route';
+import * as signup from '@/app/api/account/signup/route';
+import * as password from '@/app/api/account/password/route';
+import * as health from '@/app/api/health/route';
+import { createDesign } from '@/lib/data/designs';
+import { hashInvitationToken } from '@/lib/data/invitations';
+import { db } from '@/lib/db';
+import { addMember, call, freshEmail, makeUser, PASSWORD, sampleDocument, setupFixtures, teardown, type AnyHandler, type Fixtures, type Who } from './helpers';
+
+type Caller = Who | 'signedOut';
+const CALLERS: Caller[] = ['owner', 'designer', 'reviewer', 'viewer', 'outsider', 'signedOut'];
+
+interface Prepared {
+  path: string;
+  params: Record<string, string>;
+  body?: unknown;
+}
+
+interface Case {
+  name: string;
+  handler: AnyHandler;
+  method: string;
+  /** Expected status for owner, designer, reviewer, viewer, outsider, signed out. */
+  expect: [number, number, number, number, number, number];
+  prepare: (f: Fixtures) => Promise<Prepared>;
+}
+
+let f: Fixtures;
+
+async function newDesign(author: Who = 'designer', visibility: 'team' | 'private' = 'team'): Promise<string> {
+  const { design: d } = await createDesign(f.users[author].id, f.teamId, { title: `Case design ${Math.random().toString(36).slice(2, 7)}`, visibility, document: sampleDocument() });
+  return d.id;
+}
+
+async function newInvitation(): Promise<{ id: string; token: string }> {
+  const token = `tok${Math.random().toString(36).slice(2)}${Date.now().toString(36)}xxxxxxxxxxxx`;
+  const i = await db().models.Invitation.create({
+    teamId: f.teamId,
+    email: freshEmail('invitee'),
+    role: 'viewer',
+    tokenHash: hashInvitationToken(token),
+    invitedById: f.users.owner.id,
+    expiresAt: new Date(Date.now() + 86_400_000),
+    acceptedAt: null,
+    acceptedById: null,
+  });
+  return { id: i.id, token };
+}
+
+async function newMember(): Promise<string> {
+  const u = await makeUser('Extra');
+  await addMember(f.teamId, u.id, 'viewer');
+  return u.id;
+}
+
+const ALL_OK = (s: number): Case['expect'] => [s, s, s, s, s, 401];
+const MEMBERS_READ: Case['expect'] = [200, 200, 200, 200, 404, 401];
+const OWNER_ONLY = (s: number): Case['expect'] => [s, 403, 403, 403, 404, 401];
+const WRITERS = (s: number): Case['expect'] => [s, s, 403, 403, 404, 401];
+
+const cases: Case[] = [
+  { name: 'GET /api/health', handler: health.GET as AnyHandler, method: 'GET', expect: [200, 200, 200, 200, 200, 200], prepare: async () => ({ path: '/api/health', params: {} }) },
+  { name: 'GET /api/me', handler: me.GET, method: 'GET', expect: ALL_OK(200), prepare: async () => ({ path: '/api/me', params: {} }) },
+  { name: 'GET /api/teams', handler: teams.GET, method: 'GET', expect: ALL_OK(200), prepare: async () => ({ path: '/api/teams', params: {} }) },
+  { name: 'POST /api/teams', handler: teams.POST, method: 'POST', expect: ALL_OK(201), prepare: async () => ({ path: '/api/teams', params: {}, body: { name: 'Another bench' } }) },
+  { name: 'GET /api/teams/:teamId', handler: team.GET, method: 'GET', expect: MEMBERS_READ, prepare: async () => ({ path: `/api/teams/${f.teamId}`, params: { teamId: f.teamId } }) },
+  { name: 'GET members', handler: members.GET, method: 'GET', expect: MEMBERS_READ, prepare: async () => ({ path: `/api/teams/${f.teamId}/members`, params: { teamId: f.teamId } }) },
+  {
+    name: 'PATCH member role',
+    handler: member.PATCH,
+    method: 'PATCH',
+    expect: OWNER_ONLY(200),
+    prepare: async () => {
+      const userId = await newMember();
+      return { path: `/api/teams/${f.teamId}/members/${userId}`, params: { teamId: f.teamId, userId }, body: { role: 'reviewer' } };
+    },
+  },
+  {
+    name: 'DELETE member',
+    handler: member.DELETE,
+    method: 'DELETE',
+    expect: OWNER_ONLY(200),
+    prepare: async () => {
+      const userId = await newMember();
+      return { path: `/api/teams/${f.teamId}/members/${userId}`, params: { teamId: f.teamId, userId } };
+    },
+  },
+  { name: 'GET invitations', handler: invitations.GET, method: 'GET', expect: OWNER_ONLY(200), prepare: async () => ({ path: `/api/teams/${f.teamId}/invitations`, params: { teamId: f.teamId } }) },
+  {
+    name: 'POST invitation',
+    handler: invitations.POST,
+    method: 'POST',
+    expect: OWNER_ONLY(201),
+    prepare: async () => ({ path: `/api/teams/${f.teamId}/invitations`, params: { teamId: f.teamId }, body: { email: freshEmail('invited'), role: 'viewer' } }),
+  },
+  {
+    name: 'DELETE invitation',
+    handler: invitation.DELETE,
+    method: 'DELETE',
+    expect: OWNER_ONLY(200),
+    prepare: async () => {
+      const { id } = await newInvitation();
+      return { path: `/api/teams/${f.teamId}/invitations/${id}`, params: { teamId: f.teamId, invitationId: id } };
+    },
+  },
+  {
+    name: 'GET invitation preview (public: the token is the secret)',
+    handler: preview.GET,
+    method: 'GET',
+    expect: [200, 200, 200, 200, 200, 200],
+    prepare: async () => {
+      const { token } = await newInvitation();
+      return { path: `/api/invitations/${token}`, params: { token } };
+    },
+  },
+  {
+    name: 'POST accept of an invitation for someone else',
+    handler: accept.POST,
+    method: 'POST',
+    expect: [403, 403, 403, 403, 403, 401],
+    prepare: async () => {
+      const { token } = await newInvitation();
+      return { path: `/api/invitations/${token}/accept`, params: { token } };
+    },
+  },
+  { name: 'GET team designs', handler: teamDesigns.GET, method: 'GET', expect: MEMBERS_READ, prepare: async () => ({ path: `/api/teams/${f.teamId}/designs`, params: { teamId: f.teamId } }) },
+  {
+    name: 'POST team design',
+    handler: teamDesigns.POST,
+    method: 'POST',
+    expect: WRITERS(201),
+    prepare: async () => ({ path: `/api/teams/${f.teamId}/designs`, params: { teamId: f.teamId }, body: { title: 'New ladder', document: sampleDocument() } }),
+  },
+  {
+    name: 'GET design',
+    handler: design.GET,
+    method: 'GET',
+    expect: MEMBERS_READ,
+    prepare: async () => {
+      const designId = await newDesign();
+      return { path: `/api/designs/${designId}`, params: { designId } };
+    },
+  },
+  {
+    name: "GET someone else's private design",
+    handler: design.GET,
+    method: 'GET',
+    expect: [404, 200, 404, 404, 404, 401],
+    prepare: async () => {
+      const designId = await newDesign('designer', 'private');
+      return { path: `/api/designs/${designId}`, params: { designId } };
+    },
+  },
+  {
+    name: 'PATCH design title',
+    handler: design.PATCH,
+    method: 'PATCH',
+    expect: WRITERS(200),
+    prepare: async () => {
+      const designId = await newDesign();
+      return { path: `/api/designs/${designId}`, params: { designId }, body: { title: 'Renamed' } };
+    },
+  },
+  {
+    name: "PATCH visibility of the designer's own design (only its author)",
+    handler: design.PATCH,
+    method: 'PATCH',
+    expect: [403, 200, 403, 403, 404, 401],
+    prepare: async () => {
+      const designId = await newDesign('designer');
+      return { path: `/api/designs/${designId}`, params: { designId }, body: { visibility: 'private' } };
+    },
+  },
+  {
+    name: "PATCH archive of the owner's design (designer may not)",
+    handler: design.PATCH,
+    method: 'PATCH',
+    expect: [200, 403, 403, 403, 404, 401],
+    prepare: async () => {
+      const designId = await newDesign('owner');
+      return { path: `/api/designs/${designId}`, params: { designId }, body: { archived: true } };
+    },
+  },
+  {
+    name: 'GET revisions',
+    handler: revisions.GET,
+    method: 'GET',
+    expect: MEMBERS_READ,
+    prepare: async () => {
+      const designId = await newDesign();
+      return { path: `/api/designs/${designId}/revisions`, params: { designId } };
+    },
+  },
+  {
+    name: 'POST revision',
+    handler: revisions.POST,
+    method: 'POST',
+    expect: WRITERS(201),
+    prepare: async () => {
+      const designId = await newDesign();
+      return { path: `/api/designs/${designId}/revisions`, params: { designId }, body: { baseRevision: 1, document: sampleDocument(22e-9), message: 'bigger caps' } };
+    },
+  },
+  {
+    name: 'GET revision 1',
+    handler: revision.GET,
+    method: 'GET',
+    expect: MEMBERS_READ,
+    prepare: async () => {
+      const designId = await newDesign();
+      return { path: `/api/designs/${designId}/revisions/1`, params: { designId, number: '1' } };
+    },
+  },
+  {
+    name: 'POST fork',
+    handler: fork.POST,
+    method: 'POST',
+    expect: WRITERS(201),
+    prepare: async () => {
+      const designId = await newDesign();
+      return { path: `/api/designs/${designId}/fork`, params: { designId }, body: {} };
+    },
+  },
+  {
+    name: 'POST signup (public)',
+    handler: signup.POST,
+    method: 'POST',
+    expect: [201, 201, 201, 201, 201, 201],
+    prepare: async () => ({ path: '/api/account/signup', params: {}, body: { email: freshEmail('signup'), name: 'Newcomer', password: 'long-enough-password' } }),
+  },
+  {
+    name: 'POST password change',
+    handler: password.POST,
+    method: 'POST',
+    expect: ALL_OK(200),
+    prepare: async () => ({ path: '/api/account/password', params: {}, body: { currentPassword: PASSWORD, newPassword: PASSWORD } }),
+  },
+];
+
+beforeAll(async () => {
+  f = await setupFixtures();
+});
+afterAll(teardown);
+
+describe('every route × every role', () => {
+  const rows = cases.flatMap((c) => CALLERS.map((who, i) => ({ c, who, expected: c.expect[i] })));
+  it.each(rows.map((r) => [r.c.name, r.who, r.expected, r] as const))('%s as %s → %i', async (_n, who, expected, r) => {
+    const p = await r.c.prepare(f);
+    const res = await call(r.c.handler, p.path, { method: r.c.method, params: p.params, body: p.body, as: who === 'signedOut' ? null : f.users[who] });
+    if (res.status !== expected) throw new Error(`expected ${expected}, got ${res.status}: ${JSON.stringify(res.body)}`);
+    if (expected >= 400) {
+      const err = (res.body as { error?: { code?: string; message?: string } }).error;
+      expect(err?.code).toBeTypeOf('string');
+      expect(err?.message).toBeTypeOf('string');
+    }
+  });
+
+  it('covers every exported handler under app/api', async () => {
+    const root = path.resolve(import.meta.dirname, '../../app/api');
+    const files = fs.readdirSync(root, { recursive: true, encoding: 'utf8' }).filter((p) => p.endsWith('route.ts') && !p.includes('[...nextauth]'));
+    const tested = new Set<unknown>(cases.map((c) => c.handler));
+    const missing: string[] = [];
+    for (const file of files) {
+      const mod = (await import(path.join(root, file))) as Record<string, unknown>;
+      for (const method of ['GET', 'POST', 'PATCH', 'PUT', 'DELETE']) {
+        if (typeof mod[method] === 'function' && !tested.has(mod[method])) missing.push(`${method} ${file}`);
+      }
+    }
+    expect(files.length).toBeGreaterThanOrEqual(17);
+    expect(missing).toEqual([]);
+  });
+});
