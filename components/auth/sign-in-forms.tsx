@@ -52,7 +52,7 @@ export function SignInForms({ callbackUrl: rawCallback, initialError }: { callba
     e.preventDefault();
     setPending(true);
     setError(null);
-    const res = await signIn<'credentials'>('credentials', { email, password, redirect: false, callbackUrl });
+    const res = await signIn<'credentials'>('credentials', { email, password, redirect: false, callbackUrl }).catch(() => undefined);
     if (res?.ok && !res.error) {
       router.push(callbackUrl);
       router.refresh();
@@ -66,7 +66,7 @@ export function SignInForms({ callbackUrl: rawCallback, initialError }: { callba
     e.preventDefault();
     setLinkPending(true);
     setLinkError(null);
-    const res = await signIn<'email'>('email', { email: linkEmail, redirect: false, callbackUrl });
+    const res = await signIn<'email'>('email', { email: linkEmail, redirect: false, callbackUrl }).catch(() => undefined);
     if (res?.ok && !res.error) {
       router.push(`/check-email?email=${encodeURIComponent(linkEmail)}`);
       return;

@@ -33,7 +33,7 @@ export function SignUpForm({ callbackUrl: rawCallback }: { callbackUrl?: string 
       return; // shown from signUp.error
     }
     setSending(true);
-    const res = await signIn<'email'>('email', { email: form.email, redirect: false, callbackUrl });
+    const res = await signIn<'email'>('email', { email: form.email, redirect: false, callbackUrl }).catch(() => undefined);
     if (res?.ok && !res.error) {
       router.push(`/check-email?email=${encodeURIComponent(form.email)}&new=1`);
       return;

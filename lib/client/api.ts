@@ -101,7 +101,10 @@ export async function api<K extends RouteKey>(key: K, opts: RequestOptions<K> = 
 
 /** The message for a form field from an error, when the server named that field. */
 export function fieldError(error: unknown, field: string): string | undefined {
-  return error instanceof ApiError && error.field === field ? error.message : undefined;
+  if (!(error instanceof ApiError) || error.field !== field) return undefined;
+  // Shown under the field itself, so a leading "field: " in the message is redundant.
+  const prefix = `${field}: `;
+  return error.message.startsWith(prefix) ? error.message.slice(prefix.length) : error.message;
 }
 
 /** The message for an error that is not about one of `fields` (shown at the top of a form). */

@@ -10,7 +10,8 @@ export class SignUpPage {
     await this.page.getByLabel('E-mail', { exact: true }).fill(opts.email);
     await this.page.getByLabel('Password', { exact: true }).fill(opts.password);
     await this.page.getByTestId('signup-submit').click();
-    await expect(this.page).toHaveURL(/\/check-email/);
+    // Creating the account and sending the link mail are two round trips (and SMTP).
+    await expect(this.page).toHaveURL(/\/check-email/, { timeout: 20_000 });
     await expect(this.page.getByTestId('check-email')).toContainText(opts.email);
   }
 }
