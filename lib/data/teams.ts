@@ -63,7 +63,8 @@ export async function listMembers(userId: string, teamId: string): Promise<Membe
 }
 
 async function lockOwners(teamId: string, transaction: Transaction): Promise<string[]> {
-  const rows = await db().models.Membership.findAll({ where: { teamId, role: 'owner' }, lock: transaction.LOCK.UPDATE, transaction });
+  // a fixed lock order, so two concurrent role changes queue instead of deadlocking
+  const rows = await db().models.Membership.findAll({ where: { teamId, role: 'owner' }, order: [['userId', 'ASC']], lock: transaction.LOCK.UPDATE, transaction });
   return rows.map((m) => m.userId);
 }
 
@@ -71,8 +72,9 @@ async function lockOwners(teamId: string, transaction: Transaction): Promise<str
 export async function changeMemberRole(userId: string, teamId: string, memberId: string, role: Role): Promise<MemberDto> {
   const { sequelize, models } = db();
   return sequelize.transaction(async (transaction) => {
-    requireRole(await loadCaller(userId, transaction), teamId, ['owner']);
+    // lock first, then read the caller's role: a concurrent demotion of the caller is then seen
     const owners = await lockOwners(teamId, transaction);
+    requireRole(await loadCaller(userId, transaction), teamId, ['owner']);
     const member = await models.Membership.findOne({ where: { teamId, userId: memberId }, include: [{ model: models.User, as: 'user' }], transaction });
     if (!member) throw notFound('member');
     if (member.role === 'owner' && role !== 'owner' && owners.length <= 1) {
@@ -91,10 +93,10 @@ export async function changeMemberRole(userId: string, teamId: string, memberId:
 export async function removeMember(userId: string, teamId: string, memberId: string): Promise<void> {
   const { sequelize, models } = db();
   await sequelize.transaction(async (transaction) => {
+    const owners = await lockOwners(teamId, transaction);
     const caller = await loadCaller(userId, transaction);
     if (memberId === userId) requireMember(caller, teamId);
     else requireRole(caller, teamId, ['owner']);
-    const owners = await lockOwners(teamId, transaction);
     const member = await models.Membership.findOne({ where: { teamId, userId: memberId }, transaction });
     if (!member) throw notFound('member');
     if (member.role === 'owner' && owners.length <= 1) {
