@@ -63,6 +63,9 @@ export interface CapacitorStress {
 export interface EstimateResult {
   topology: EstimateTopology;
   stages: number;
+  /** The drive peak (V) and frequency (Hz) the estimate used. */
+  drivePeakV: number;
+  frequencyHz: number;
   /** Ideal no-load output 2nVp (4nVp across both outputs for `symmetric`) (V, magnitude). */
   idealNoLoadV: number;
   /** No-load output with the stray-capacitance efficiency and the −2nVf diode correction (V). */
@@ -197,6 +200,8 @@ export function estimateLadder(input: EstimateInput): EstimateResult {
   return {
     topology,
     stages: n,
+    drivePeakV: vp,
+    frequencyHz: f,
     idealNoLoadV,
     noLoadV,
     strayEfficiency: eta,

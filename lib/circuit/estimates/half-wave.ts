@@ -91,3 +91,12 @@ export function textbookLoadedOutputV(n: number, drivePeakV: number, loadCurrent
 export function halfWaveWarmupCycles(n: number): { cycles90: number; cycles99: number } {
   return { cycles90: 3.4 * n * n, cycles99: 7.1 * n * n };
 }
+
+/**
+ * A component manufacturer's ripple formula [S3], Vrip = I·(N² + N/2)/(8·f·C), with N the number of
+ * DIODES (= 2n full stages). Kept to show the convention conflict of REFERENCES §1.2/§8 E3: its n²
+ * term agrees with the textbook ripple, its linear term does not (it sits closer to square-wave drive).
+ */
+export function manufacturerRippleV(diodes: number, loadCurrentA: number, frequencyHz: number, capacitanceF: number): number {
+  return (loadCurrentA * (diodes * diodes + diodes / 2)) / (8 * frequencyHz * capacitanceF);
+}
