@@ -93,10 +93,10 @@ describe('invitations', () => {
     }
     const dup = await invite(f.users.viewer.email);
     expect(dup.status).toBe(409);
-    expect((dup.body as { error: { code: string } }).error.code).toBe('exists');
+    expect((dup.body as unknown as { error: { code: string } }).error.code).toBe('exists');
     const bad = await invite('not-an-address');
     expect(bad.status).toBe(422);
-    expect((bad.body as { error: { field: string } }).error.field).toBe('email');
+    expect((bad.body as unknown as { error: { field: string } }).error.field).toBe('email');
   });
 
   it('owner lists and revokes; a revoked link stops working', async () => {
