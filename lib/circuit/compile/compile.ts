@@ -298,7 +298,8 @@ export function compileDocument(doc: DesignDocument): CompileResult {
   const reportedOpen = new Set(diagnostics.filter((d) => d.code === 'unconnected-port').map((d) => d.node));
   const fromTopology = topology.diagnostics.filter((d) => !(d.code === 'floating-node' && d.severity === 'warning' && reportedOpen.has(d.node)));
   const all = attachOrigins([...diagnostics, ...fromTopology], netlist);
-  const withStages = all.map((d) => (d.stage === undefined && d.blockId && stageNumber(topology, netlist, d.blockId) !== undefined ? { ...d, stage: stageNumber(topology, netlist, d.blockId) } : d));
+  const stageOfBlock = stagesByBlock(topology, netlist);
+  const withStages = all.map((d) => (d.stage === undefined && d.blockId !== undefined && stageOfBlock.has(d.blockId) ? { ...d, stage: stageOfBlock.get(d.blockId) } : d));
   if (hasErrors(withStages)) {
     const firstError = withStages.find((d) => d.severity === 'error') as Diagnostic;
     return { ok: false, reason: firstError.message, diagnostics: withStages };
@@ -306,16 +307,17 @@ export function compileDocument(doc: DesignDocument): CompileResult {
   return { ok: true, netlist, topology, diagnostics: withStages };
 }
 
-/** Stage number of a stage block in the recognised ladders (via its pumping or smoothing capacitor). */
-function stageNumber(topology: TopologyReport, netlist: Netlist, blockId: string): number | undefined {
+/** Stage number of every block that holds a recognised stage part (via the parts' canvas origins). */
+function stagesByBlock(topology: TopologyReport, netlist: Netlist): Map<string, number> {
+  const byName = new Map(netlist.elements.map((e) => [e.name, e] as const));
+  const out = new Map<string, number>();
   for (const l of topology.ladders) {
     for (const s of l.stageElements) {
       for (const name of [s.pumpC, s.smoothC, s.pump2C, ...s.diodes]) {
-        if (!name) continue;
-        const el = netlist.elements.find((e) => e.name === name);
-        if (el?.origin?.blockId === blockId) return s.stage;
+        const blockId = name ? byName.get(name)?.origin?.blockId : undefined;
+        if (blockId !== undefined && !out.has(blockId)) out.set(blockId, s.stage);
       }
     }
   }
-  return undefined;
+  return out;
 }

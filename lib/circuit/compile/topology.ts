@@ -81,12 +81,19 @@ interface Drive {
 const MAX_PER_CODE = 20;
 
 class Graph {
-  readonly rep = new Map<string, string>();
+  /** Element nodes after series-resistor contraction, resolved once. */
+  private readonly resolved: Array<[string, string]>;
   readonly adj = new Map<string, number[]>();
-  constructor(readonly elements: NetlistElement[], contracted: Set<number>) {
-    elements.forEach((el, i) => {
+  constructor(
+    readonly elements: NetlistElement[],
+    contracted: Set<number>,
+    private readonly rep: Map<string, string>,
+  ) {
+    this.resolved = elements.map((el) => [this.find(el.nodes[0]), this.find(el.nodes[1])]);
+    elements.forEach((_, i) => {
       if (contracted.has(i)) return;
-      for (const node of new Set(this.nodes(el))) {
+      const [a, b] = this.resolved[i];
+      for (const node of a === b ? [a] : [a, b]) {
         let list = this.adj.get(node);
         if (!list) this.adj.set(node, (list = []));
         list.push(i);
@@ -102,18 +109,22 @@ class Graph {
     }
     return n;
   }
-  nodes(el: NetlistElement): [string, string] {
-    return [this.find(el.nodes[0]), this.find(el.nodes[1])];
+  nodes(el: NetlistElement | number): [string, string] {
+    return typeof el === 'number' ? this.resolved[el] : [this.find(el.nodes[0]), this.find(el.nodes[1])];
   }
   other(i: number, node: string): string {
-    const [a, b] = this.nodes(this.elements[i]);
+    const [a, b] = this.resolved[i];
     return a === node ? b : a;
   }
   at(node: string, kind: NetlistElement['kind'], used: Set<number>): number[] {
-    return (this.adj.get(node) ?? []).filter((i) => this.elements[i].kind === kind && !used.has(i));
+    const out: number[] = [];
+    for (const i of this.adj.get(node) ?? []) if (this.elements[i].kind === kind && !used.has(i)) out.push(i);
+    return out;
   }
   between(a: string, b: string, kind: NetlistElement['kind'], used: Set<number>): number[] {
-    return this.at(a, kind, used).filter((i) => this.other(i, a) === b);
+    const out: number[] = [];
+    for (const i of this.adj.get(a) ?? []) if (this.elements[i].kind === kind && !used.has(i) && this.other(i, a) === b) out.push(i);
+    return out;
   }
 }
 
@@ -178,7 +189,7 @@ function bestStage(g: Graph, xPrev: string, yPrev: string, used: Set<number>): S
 
 /** Orientation of a diode relative to a positive ladder: +1 as in a positive ladder, −1 reversed. */
 function orientation(g: Graph, d: number, expectedAnode: string): 1 | -1 {
-  return g.nodes(g.elements[d])[0] === expectedAnode ? 1 : -1;
+  return g.nodes(d)[0] === expectedAnode ? 1 : -1;
 }
 
 interface WalkedStage extends StageMatch {
@@ -249,8 +260,7 @@ export function recognizeTopology(netlist: Netlist): TopologyReport {
       }
     }
   });
-  const g = new Graph(els, contracted);
-  rep.forEach((to, from) => g.rep.set(from, to));
+  const g = new Graph(els, contracted, rep);
 
   connectivityChecks(netlist, add);
 
