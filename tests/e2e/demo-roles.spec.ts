@@ -1,4 +1,5 @@
-import { expect, test } from '@playwright/test';
+import { test } from '@playwright/test';
+import { expect } from './support/expect';
 import { freshEmail } from './support/mail';
 import { SignInPage, TeamDesignsPage, TeamsPage } from './support/pages';
 

@@ -1,4 +1,5 @@
-import { expect, test } from '@playwright/test';
+import { test } from '@playwright/test';
+import { expect } from './support/expect';
 import { freshEmail, waitForLink } from './support/mail';
 import { SignUpPage, TeamDesignsPage, TeamSettingsPage, TeamsPage } from './support/pages';
 

@@ -1,4 +1,5 @@
-import { expect, type APIRequestContext } from '@playwright/test';
+import type { APIRequestContext } from '@playwright/test';
+import { expect } from './expect';
 
 /** The local mail catcher started by scripts/fakes.ts (JSON of every caught message, newest first). */
 const MAIL_CATCHER_URL = process.env.MAIL_CATCHER_URL ?? 'http://127.0.0.1:2580';

@@ -1,4 +1,5 @@
-import { expect, type Page } from '@playwright/test';
+import type { Page } from '@playwright/test';
+import { expect } from './expect';
 
 /** Small page objects over Kilorung's screens; they use labels (what a person reads) and data-testid. */
 
