@@ -1,8 +1,8 @@
 /**
  * Reader for the common SPICE netlist subset (Berkeley SPICE 3 card syntax): title line, R, C,
  * D, V, I element cards, `.model NAME D(...)`, `+` continuation lines, `*` comment lines, `;` and
- * `$ ` inline comments, `.end`. Other dot-cards are kept verbatim in `ignored` and reported as
- * warnings. Every problem is reported with its 1-based source line; nothing here throws on bad
+ * `$ ` inline comments, `.end`. Other dot-cards, and ngspice `.control … .endc` blocks, are kept
+ * verbatim in `ignored` and reported as warnings. Every problem is reported with its 1-based source line; nothing here throws on bad
  * input.
  *
  * Limits (hostile input): at most {@link MAX_NETLIST_CHARS} characters, {@link MAX_ELEMENTS}
@@ -71,6 +71,8 @@ const UNSUPPORTED_LETTERS: Record<string, string> = {
 interface Card {
   line: number;
   text: string;
+  /** Inside an ngspice `.control … .endc` block: kept verbatim, never read as a card. */
+  control?: boolean;
 }
 
 /** Remove `;` comments and `$` comments (a `$` at the start or after blank space, as in ngspice). */
@@ -114,11 +116,18 @@ export function parseNetlist(text: string): ParseResult {
   // Join `+` continuations onto the card before them, skipping comment and blank lines between.
   const cards: Card[] = [];
   let ended = false;
+  let inControl = false;
   for (let i = 1; i < physical.length && !ended; i++) {
     const raw = physical[i];
     const lineNo = i + 1;
     const trimmed = raw.trim();
     if (trimmed.length === 0 || trimmed.startsWith('*')) continue;
+    const lowered = trimmed.toLowerCase();
+    if (inControl || lowered === '.control') {
+      if (trimmed.length <= MAX_LOGICAL_LINE_CHARS) cards.push({ line: lineNo, text: trimmed, control: true });
+      inControl = lowered !== '.endc';
+      continue;
+    }
     if (trimmed.startsWith('+')) {
       const last = cards[cards.length - 1];
       if (!last) {
@@ -169,6 +178,11 @@ export function parseNetlist(text: string): ParseResult {
 
   for (const card of cards) {
     if (errors.length >= MAX_REPORTED_ISSUES) break;
+    if (card.control) {
+      ignored.push({ line: card.line, text: card.text });
+      if (card.text.toLowerCase() === '.control') warnings.push({ line: card.line, message: '.control block ignored' });
+      continue;
+    }
     const tokens = tokenize(card.text);
     if (tokens.length === 0) continue;
     const head = tokens[0];

@@ -124,6 +124,20 @@ Rload OUTPUT 0 50meg
     expect(t.ladders[0].stageElements[1].pumpC).toBe('CqP2');
   });
 
+  it('ESR on either side of a capacitor is contracted', () => {
+    const text = halfWave(3)
+      .replace('CqS2 qDc_1 qDc_2 1u', 'Resr qDc_1 near 0.2\nCqS2 near qDc_2 1u')
+      .replace('CqP3 qPump2 qPump3 1u', 'CqP3 qPump2 far 1u\nResr3 qPump3 far 0.2');
+    const t = recognizeTopology(net(text));
+    expect(t.kind).toBe('half-wave');
+    expect(t.ladders[0].stageElements.map((s) => [s.pumpC, s.smoothC])).toEqual([
+      ['CqP1', 'CqS1'],
+      ['CqP2', 'CqS2'],
+      ['CqP3', 'CqS3'],
+    ]);
+    expect(t.columnOf.near).toBe('other');
+  });
+
   it('anything else is custom, with an info diagnostic', () => {
     const t = recognizeTopology(net('bridge\nV1 a 0 SIN(0 10 50)\nD1 a b DX\nD2 0 b DX\nC1 b 0 1u\nR1 b 0 1k\n.model DX D\n'));
     expect(t.kind).toBe('custom');

@@ -106,6 +106,14 @@ describe('parseNetlist: syntax', () => {
     expect(r.ok && r.warnings.map((w) => w.line)).toEqual([8, 9]);
   });
 
+  it('ngspice .control blocks are kept verbatim, not read as cards', () => {
+    const r = parseNetlist('t\nR1 a 0 1k\n.control\nrun\nplot v(a)\n.endc\nC1 a 0 1n\n');
+    const n = ok(r);
+    expect(n.elements.map((e) => e.name)).toEqual(['R1', 'C1']);
+    expect(n.ignored.map((c) => c.text)).toEqual(['.control', 'run', 'plot v(a)', '.endc']);
+    expect(r.ok && r.warnings).toEqual([{ line: 3, message: '.control block ignored' }]);
+  });
+
   it('keeps node names as written', () => {
     const n = ok(parseNetlist('t\nR1 Node_A out.1 1\nR2 out.1 0 1\n'));
     expect(n.elements[0].nodes).toEqual(['Node_A', 'out.1']);
