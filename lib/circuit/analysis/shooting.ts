@@ -1,0 +1,262 @@
+/**
+ * Periodic steady state by the shooting–Newton method (T. J. Aprille, T. N. Trick, "Steady-state
+ * analysis of nonlinear circuits with periodic inputs", Proc. IEEE 60(1), 1972; K. S. Kundert,
+ * J. K. White, A. Sangiovanni-Vincentelli, Steady-State Methods for Simulating Analog and
+ * Microwave Circuits, Kluwer 1990, ch. 5). The unknown is the charge-state vector s (the branch
+ * voltage of every capacitor and diode charge) at the start of a period; one period of
+ * transient analysis maps it to φ(s). Newton's method solves φ(s) − s = 0 with the monodromy
+ * (sensitivity) matrix M = ∂φ/∂s, propagated along the period's own time steps by re-using
+ * each step's factorised Jacobian: J_{k+1}·X_{k+1} = −(α1·C_k·X_k + α2·C_{k−1}·X_{k−1}).
+ *
+ * Safeguards: backtracking on ‖φ(s) − s‖, a plain one-period (Picard) step when Newton does not
+ * reduce the residual, and a frozen time grid once the residual is small so that the period map
+ * is smooth and Newton converges quadratically.
+ */
+import { DenseLu } from '../linalg/dense-lu';
+import type { Circuit } from '../mna/circuit';
+import type { StepControl } from './transient';
+import { TransientEngine } from './transient';
+
+/** Samples of one period: accepted times and solutions, plus every slot's companion current. */
+export interface PeriodRecord {
+  timesS: Float64Array;
+  /** Row k: solution vector at timesS[k] (size + 1 values). */
+  solutions: Float64Array[];
+  /** Row k: companion current of every charge slot at timesS[k]. */
+  slotCurrents: Float64Array[];
+}
+
+export interface PeriodRun {
+  /** Slot branch voltages at the end of the period. */
+  endV: Float64Array;
+  /** Monodromy matrix (row-major, slots × slots), when requested. */
+  monodromy: Float64Array | null;
+  record: PeriodRecord;
+  steps: number;
+  newtonIterations: number;
+}
+
+export type PeriodOutcome = { ok: true; run: PeriodRun } | { ok: false; reason: string };
+
+/** Integrates one period [0, T] from slot voltages s0, optionally with sensitivities. */
+export function integratePeriod(
+  engine: TransientEngine,
+  s0: Float64Array,
+  guess: Float64Array | undefined,
+  periodS: number,
+  control: StepControl,
+  withSensitivity: boolean,
+): PeriodOutcome {
+  const { circuit, store } = engine;
+  const m = store.count;
+  const size = circuit.size;
+  engine.start(0, s0, guess);
+  const startNewton = engine.newton.totalIterations;
+  const startSteps = engine.steps;
+  const times: number[] = [0];
+  const sols: Float64Array[] = [Float64Array.from(engine.x)];
+  const currents: Float64Array[] = [new Float64Array(m)];
+  let qd1 = new Float64Array(withSensitivity ? m * m : 0);
+  let qd2 = new Float64Array(withSensitivity ? m * m : 0);
+  let vd = new Float64Array(withSensitivity ? m * m : 0);
+  const col = new Float64Array(size + 1);
+  const { pos, neg } = store;
+  if (withSensitivity) {
+    for (let j = 0; j < m; j++) qd1[j * m + j] = engine.slotCharge(j, s0[j]).c;
+  }
+  const onAccept = (t: number, _h: number, x: Float64Array) => {
+    times.push(t);
+    sols.push(Float64Array.from(x));
+    currents.push(Float64Array.from(store.iAccepted));
+    if (!withSensitivity) return;
+    const a1 = store.alpha[1];
+    const a2 = store.alpha[2];
+    const next = qd2;
+    for (let s = 0; s < m; s++) {
+      col.fill(0);
+      const base = s * m;
+      for (let j = 0; j < m; j++) {
+        const v = a1 * qd1[base + j] + a2 * qd2[base + j];
+        if (v === 0) continue;
+        col[pos[j]] -= v;
+        col[neg[j]] += v;
+      }
+      col[size] = 0;
+      circuit.matrix.solve(col);
+      col[size] = 0;
+      for (let j = 0; j < m; j++) {
+        const dv = col[pos[j]] - col[neg[j]];
+        vd[base + j] = dv;
+        next[base + j] = store.cNow[j] * dv;
+      }
+    }
+    qd2 = qd1;
+    qd1 = next;
+  };
+  const r = engine.run(periodS, control, onAccept);
+  if (!r.ok) return { ok: false, reason: r.reason };
+  let monodromy: Float64Array | null = null;
+  if (withSensitivity) {
+    // vd is stored column-major (column s = ∂v/∂s_s); return it row-major.
+    monodromy = new Float64Array(m * m);
+    for (let s = 0; s < m; s++) for (let j = 0; j < m; j++) monodromy[j * m + s] = vd[s * m + j];
+    vd = new Float64Array(0);
+  }
+  return {
+    ok: true,
+    run: {
+      endV: engine.branchVoltages(),
+      monodromy,
+      record: { timesS: Float64Array.from(times), solutions: sols, slotCurrents: currents },
+      steps: engine.steps - startSteps,
+      newtonIterations: engine.newton.totalIterations - startNewton,
+    },
+  };
+}
+
+export interface ShootingOptions {
+  periodS: number;
+  /** Converged when max|φ(s) − s| ≤ tolerance·max|s| (relative period-to-period change). */
+  tolerance: number;
+  maxIterations: number;
+  control: StepControl;
+  /** Freeze the time grid once the relative residual is below this. */
+  freezeBelow: number;
+  /** Most plain periods integrated from the initial state before Newton starts. */
+  warmupPeriods: number;
+}
+
+export type ShootingOutcome =
+  | {
+      ok: true;
+      state: Float64Array;
+      run: PeriodRun;
+      iterations: number;
+      residual: number;
+      periodsIntegrated: number;
+      history: number[];
+    }
+  | { ok: false; reason: string; iterations: number; residual: number; periodsIntegrated: number; history: number[] };
+
+function lastSolution(run: PeriodRun): Float64Array {
+  return run.record.solutions[run.record.solutions.length - 1];
+}
+
+/** True when every diode passes a forward charge of at least 1e-3 of the largest one's. */
+export function allDiodesConduct(circuit: Circuit, record: PeriodRecord): boolean {
+  const diodes = circuit.diodes;
+  if (diodes.length === 0) return true;
+  const charge = new Float64Array(diodes.length);
+  const t = record.timesS;
+  for (let k = 1; k < t.length; k++) {
+    const dt = t[k] - t[k - 1];
+    for (let d = 0; d < diodes.length; d++) {
+      const i = diodes[d].staticCurrent(record.solutions[k]);
+      if (i > 0) charge[d] += i * dt;
+    }
+  }
+  let most = 0;
+  for (const q of charge) most = Math.max(most, q);
+  return charge.every((q) => q >= 1e-3 * most);
+}
+
+function relResidual(s: Float64Array, end: Float64Array, floorV: number): { rel: number; norm: number } {
+  let worst = 0;
+  let scale = floorV;
+  let norm = 0;
+  for (let j = 0; j < s.length; j++) {
+    const d = end[j] - s[j];
+    worst = Math.max(worst, Math.abs(d));
+    scale = Math.max(scale, Math.abs(s[j]));
+    norm += d * d;
+  }
+  return { rel: worst / scale, norm: Math.sqrt(norm) };
+}
+
+export function shootPeriodicSteadyState(
+  circuit: Circuit,
+  engine: TransientEngine,
+  s0: Float64Array,
+  guess: Float64Array | undefined,
+  o: ShootingOptions,
+): ShootingOutcome {
+  const m = s0.length;
+  const floorV = 1e-6 * o.control.vScaleV;
+  let periods = 0;
+  const history: number[] = [];
+  let control: StepControl = o.control;
+  let s = Float64Array.from(s0);
+  // Plain periods first, until every diode conducts within the period. From an ideal no-load
+  // guess the loaded ladder's diodes start conducting one stage per period; a diode that does
+  // not conduct leaves the period map with a unit eigenvalue (M − I singular) and Newton's step
+  // is meaningless along it.
+  let first = integratePeriod(engine, s, guess, o.periodS, control, false);
+  periods++;
+  for (let k = 0; first.ok && k < o.warmupPeriods && !allDiodesConduct(circuit, first.run.record); k++) {
+    s = Float64Array.from(first.run.endV);
+    first = integratePeriod(engine, s, lastSolution(first.run), o.periodS, control, false);
+    periods++;
+  }
+  if (first.ok) first = integratePeriod(engine, s, first.run.record.solutions[0], o.periodS, control, true);
+  periods++;
+  if (!first.ok) return { ok: false, reason: first.reason, iterations: 0, residual: Infinity, periodsIntegrated: periods, history };
+  let run = first.run;
+  let res = relResidual(s, run.endV, floorV);
+  history.push(res.rel);
+  for (let it = 1; it <= o.maxIterations; it++) {
+    if (res.rel <= o.tolerance) {
+      return { ok: true, state: s, run, iterations: it - 1, residual: res.rel, periodsIntegrated: periods, history };
+    }
+    if (!control.grid && res.rel < o.freezeBelow) {
+      control = { ...o.control, grid: run.record.timesS.subarray(1) };
+      // Re-evaluate on the frozen grid so that residual and monodromy belong to the same map.
+      const again = integratePeriod(engine, s, run.record.solutions[0], o.periodS, control, true);
+      periods++;
+      if (!again.ok) return { ok: false, reason: again.reason, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
+      run = again.run;
+      res = relResidual(s, run.endV, floorV);
+      history.push(res.rel);
+      if (res.rel <= o.tolerance) continue;
+    }
+    const mono = run.monodromy!;
+    const a = Float64Array.from(mono);
+    for (let j = 0; j < m; j++) a[j * m + j] -= 1;
+    const rhs = new Float64Array(m);
+    for (let j = 0; j < m; j++) rhs[j] = -(run.endV[j] - s[j]);
+    const f = DenseLu.factor(a, m);
+    let accepted = false;
+    if (f.ok) {
+      const delta = f.lu.solve(rhs);
+      // Trust region: no state moves by more than a quarter of the drive amplitude at once.
+      let big = 0;
+      for (let j = 0; j < m; j++) big = Math.max(big, Math.abs(delta[j]));
+      let lambda = Math.min(1, (0.25 * o.control.vScaleV) / (big || 1));
+      for (let tries = 0; tries < 4 && !accepted; tries++, lambda /= 2) {
+        const trial = new Float64Array(m);
+        for (let j = 0; j < m; j++) trial[j] = s[j] + lambda * delta[j];
+        const out = integratePeriod(engine, trial, run.record.solutions[run.record.solutions.length - 1], o.periodS, control, true);
+        periods++;
+        if (!out.ok) continue;
+        const r2 = relResidual(trial, out.run.endV, floorV);
+        if (r2.norm < res.norm || r2.rel <= o.tolerance) {
+          s = trial;
+          run = out.run;
+          res = r2;
+          accepted = true;
+        }
+      }
+    }
+    if (!accepted) {
+      // One plain period: always a valid (if slow) step towards the steady state.
+      s = Float64Array.from(run.endV);
+      const out = integratePeriod(engine, s, run.record.solutions[run.record.solutions.length - 1], o.periodS, control, true);
+      periods++;
+      if (!out.ok) return { ok: false, reason: out.reason, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
+      run = out.run;
+      res = relResidual(s, run.endV, floorV);
+    }
+    history.push(res.rel);
+  }
+  if (res.rel <= o.tolerance) return { ok: true, state: s, run, iterations: o.maxIterations, residual: res.rel, periodsIntegrated: periods, history };
+  return { ok: false, reason: `shooting did not converge in ${o.maxIterations} iterations (residual ${res.rel.toExponential(2)})`, iterations: o.maxIterations, residual: res.rel, periodsIntegrated: periods, history };
+}
