@@ -81,7 +81,9 @@ function Revisions({ designId, latest, selected, onSelect }: { designId: string;
               </span>
               <span className="text-xs text-ink-400">{formatDateTime(r.createdAt)}</span>
             </span>
-            <span className="block truncate text-ink-200">{r.message || 'No message'}</span>
+            <span className="block truncate text-ink-200" title={r.message || undefined}>
+              {r.message || 'No message'}
+            </span>
             <span className="block text-xs text-ink-400">{r.author.name || r.author.email}</span>
           </button>
         </li>
@@ -152,8 +154,8 @@ export function DesignRoot({ designId }: { designId: string }) {
           <Panel
             title={
               <span>
-                Stored document, r{rev.number}
-                {rev.number !== d.latestRevision ? <span className="ml-2 text-sm font-normal text-copper-400">older revision</span> : null}
+                Stored document, r{selected}
+                {selected !== d.latestRevision ? <span className="ml-2 text-sm font-normal text-copper-400">older revision</span> : null}
               </span>
             }
             testId="summary-panel"
