@@ -227,6 +227,21 @@ export function recognizeTopology(netlist: Netlist): TopologyReport {
       else if (el.kind === 'C') add({ code: 'shorted-capacitor', severity: 'warning', element: el.name, node: el.nodes[0], message: `${el.name}: both terminals are on node ${el.nodes[0]}, the capacitor is shorted` });
     }
   });
+  // Voltage sources that close a loop among themselves (parallel sources included) short each other.
+  const vParent = new Map<string, string>();
+  const vFind = (n: string): string => {
+    let r = n;
+    while (vParent.has(r) && vParent.get(r) !== r) r = vParent.get(r) as string;
+    return r;
+  };
+  els.forEach((el) => {
+    if (el.kind !== 'V' || el.nodes[0] === el.nodes[1]) return;
+    const a = vFind(el.nodes[0]);
+    const b = vFind(el.nodes[1]);
+    if (a === b) {
+      add({ code: 'shorted-source', severity: 'error', element: el.name, node: el.nodes[0], message: `${el.name}: closes a loop of voltage sources (sources in parallel or in a ring short each other)` });
+    } else vParent.set(a, b);
+  });
   if (!els.some((el) => el.nodes.includes(GROUND))) {
     add({ code: 'no-ground', severity: 'error', message: 'no element connects to ground (node 0)' });
   }

@@ -80,8 +80,9 @@ export function formatEngineering(value: number, unit: string, digits = 3): stri
         mantissa = Number((abs / PREFIXES[i - 1][0]).toPrecision(d));
         p = PREFIXES[i - 1][1];
       }
-      const text = mantissa >= 1e4 || mantissa < 1e-3 ? mantissa.toExponential(d - 1) : mantissa.toPrecision(d);
-      return `${sign}${text} ${p}${unit}`.trimEnd();
+      // Below the smallest prefix (or above the largest) fall back to plain exponent notation.
+      if (mantissa < 1 || mantissa >= 1e4) return `${sign}${abs.toExponential(d - 1)} ${unit}`.trimEnd();
+      return `${sign}${mantissa.toPrecision(d)} ${p}${unit}`.trimEnd();
     }
   }
   return `${sign}${abs.toPrecision(d)} ${unit}`.trimEnd();

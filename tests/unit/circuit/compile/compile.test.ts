@@ -134,6 +134,48 @@ describe('compileDocument: netlist contents', () => {
   });
 });
 
+/**
+ * A half-wave ladder drawn from discrete capacitor and diode blocks: stage k has cp{k} x(k−1)→x(k),
+ * cs{k} y(k−1)→y(k), da{k} y(k−1)→x(k), db{k} x(k)→y(k); x0 = source hot, y0 = ground.
+ */
+function discreteLadder(n: number, opts: { omit?: string; reverse?: string } = {}): DesignDocument {
+  const blocks: DesignBlock[] = [
+    { id: 'src', kind: 'acSource', position: { x: 0, y: 0 }, data: { variant: 'single', amplitudeV: 100, amplitudeMode: 'peak', frequencyHz: 50e3, phaseDeg: 0, sourceResistanceOhm: 0 } },
+    { id: 'gnd', kind: 'ground', position: { x: 0, y: 0 }, data: {} },
+  ];
+  const wires: DesignDocument['wires'] = [{ id: 'w0', source: 'src', sourcePort: 'ret', target: 'gnd', targetPort: 'g' }];
+  let wn = 1;
+  const wire = (a: string, ap: string, b: string, bp: string) => {
+    if (a === opts.omit || b === opts.omit) return;
+    wires.push({ id: `w${wn++}`, source: a, sourcePort: ap, target: b, targetPort: bp });
+  };
+  const cap = (id: string) => {
+    if (id !== opts.omit) blocks.push({ id, kind: 'capacitor', position: { x: 0, y: 0 }, data: { capacitanceF: 10e-9 } });
+  };
+  const dio = (id: string) => blocks.push({ id, kind: 'diode', position: { x: 0, y: 0 }, data: GENERIC_DIODE });
+  // A reversed diode swaps its anode and cathode wires.
+  const an = (id: string) => (id === opts.reverse ? 'cathode' : 'anode');
+  const ca = (id: string) => (id === opts.reverse ? 'anode' : 'cathode');
+  const xPort = (k: number): [string, string] => (k === 0 ? ['src', 'hot'] : [`cp${k}`, 'b']);
+  const yPort = (k: number): [string, string] => (k === 0 ? ['gnd', 'g'] : [`db${k}`, ca(`db${k}`)]);
+  for (let k = 1; k <= n; k++) {
+    cap(`cp${k}`);
+    cap(`cs${k}`);
+    dio(`da${k}`);
+    dio(`db${k}`);
+    wire(...xPort(k - 1), `cp${k}`, 'a');
+    wire(...yPort(k - 1), `da${k}`, an(`da${k}`));
+    wire(`da${k}`, ca(`da${k}`), `cp${k}`, 'b');
+    wire(`cp${k}`, 'b', `db${k}`, an(`db${k}`));
+    wire(...yPort(k - 1), `cs${k}`, 'a');
+    wire(`cs${k}`, 'b', `db${k}`, ca(`db${k}`));
+  }
+  blocks.push({ id: 'load', kind: 'load', position: { x: 0, y: 0 }, data: { mode: 'current', currentA: 1e-6 } });
+  wire(`db${n}`, ca(`db${n}`), 'load', 'a');
+  wire('load', 'b', 'gnd', 'g');
+  return { schemaVersion: 1, blocks, wires, settings: { strayCapacitanceF: 0, deratingFraction: 0.8 } };
+}
+
 describe('compileDocument: faults on the right block and stage', () => {
   it('diodes of stage 2 reversed (stage polarity flipped)', () => {
     const doc = halfWaveStarter(4, O);
@@ -154,46 +196,21 @@ describe('compileDocument: faults on the right block and stage', () => {
     expect(r.diagnostics).toContainEqual(expect.objectContaining({ code: 'shorted-capacitor', blockId: 's2', element: 'Cpump_s2' }));
   });
 
+  it('one diode reversed in stage 2 of a ladder built from discrete parts', () => {
+    const r = ok(compileDocument(discreteLadder(4, { reverse: 'db2' })));
+    expect(r.topology.ladders[0]).toMatchObject({ stages: 4, polarity: 'positive' });
+    const rev = r.diagnostics.filter((d) => d.code === 'reversed-diode');
+    expect(rev).toEqual([expect.objectContaining({ element: 'D_db2', blockId: 'db2', stage: 2 })]);
+    expect(ok(compileDocument(discreteLadder(4))).diagnostics).toEqual([]);
+  });
+
   it('a missing capacitor in a ladder built from discrete parts', () => {
-    const blocks: DesignBlock[] = [
-      { id: 'src', kind: 'acSource', position: { x: 0, y: 0 }, data: { variant: 'single', amplitudeV: 100, amplitudeMode: 'peak', frequencyHz: 50e3, phaseDeg: 0, sourceResistanceOhm: 0 } },
-      { id: 'gnd', kind: 'ground', position: { x: 0, y: 0 }, data: {} },
-    ];
-    const wires: DesignDocument['wires'] = [{ id: 'w0', source: 'src', sourcePort: 'ret', target: 'gnd', targetPort: 'g' }];
-    let wn = 1;
-    const wire = (a: string, ap: string, b: string, bp: string) => wires.push({ id: `w${wn++}`, source: a, sourcePort: ap, target: b, targetPort: bp });
-    const cap = (id: string) => blocks.push({ id, kind: 'capacitor', position: { x: 0, y: 0 }, data: { capacitanceF: 10e-9 } });
-    const dio = (id: string) => blocks.push({ id, kind: 'diode', position: { x: 0, y: 0 }, data: GENERIC_DIODE });
-    // x0 = src.hot, y0 = gnd; stage k: cp{k} x(k-1)→x(k), cs{k} y(k-1)→y(k), da{k} y(k-1)→x(k), db{k} x(k)→y(k).
-    const xPort = (k: number): [string, string] => (k === 0 ? ['src', 'hot'] : [`cp${k}`, 'b']);
-    const yPort = (k: number): [string, string] => (k === 0 ? ['gnd', 'g'] : [`db${k}`, 'cathode']);
-    for (let k = 1; k <= 3; k++) {
-      cap(`cp${k}`);
-      if (k !== 2) cap(`cs${k}`);
-      dio(`da${k}`);
-      dio(`db${k}`);
-      wire(...xPort(k - 1), `cp${k}`, 'a');
-      wire(...yPort(k - 1), `da${k}`, 'anode');
-      wire(`da${k}`, 'cathode', `cp${k}`, 'b');
-      wire(`cp${k}`, 'b', `db${k}`, 'anode');
-      if (k !== 2) {
-        wire(...yPort(k - 1), `cs${k}`, 'a');
-        wire(`cs${k}`, 'b', `db${k}`, 'cathode');
-      }
-    }
-    blocks.push({ id: 'load', kind: 'load', position: { x: 0, y: 0 }, data: { mode: 'current', currentA: 1e-6 } });
-    wire('db3', 'cathode', 'load', 'a');
-    wire('load', 'b', 'gnd', 'g');
-    const doc: DesignDocument = { schemaVersion: 1, blocks, wires, settings: { strayCapacitanceF: 0, deratingFraction: 0.8 } };
-    const r = ok(compileDocument(doc));
+    const r = ok(compileDocument(discreteLadder(3, { omit: 'cs2' })));
     expect(r.topology.ladders[0].stages).toBe(3);
     const miss = r.diagnostics.filter((d) => d.code === 'missing-capacitor');
     expect(miss).toEqual([expect.objectContaining({ stage: 2, blockId: 'db2' })]);
-    // With the capacitor put back it is a clean half-wave ladder.
-    cap('cs2');
-    wire(...yPort(1), 'cs2', 'a');
-    wire('cs2', 'b', 'db2', 'cathode');
-    const fixed = ok(compileDocument(doc));
+    // With the capacitor in place it is a clean half-wave ladder.
+    const fixed = ok(compileDocument(discreteLadder(3)));
     expect(fixed.topology.kind).toBe('half-wave');
     expect(fixed.diagnostics).toEqual([]);
   });

@@ -214,6 +214,13 @@ describe('faults diagnosed on the right part', () => {
     expect(t.diagnostics).toContainEqual(expect.objectContaining({ code: 'shorted-capacitor', element: 'Cshort' }));
   });
 
+  it('voltage sources in parallel short each other', () => {
+    const t = recognizeTopology(net(halfWave(2, { extra: ['Vpar AC_IN 0 DC 5'] })));
+    expect(t.diagnostics).toContainEqual(expect.objectContaining({ code: 'shorted-source', element: 'Vpar', severity: 'error' }));
+    const ring = recognizeTopology(net(halfWave(1, { extra: ['Vr1 AC_IN m DC 1', 'Vr2 m 0 DC 1'] })));
+    expect(ring.diagnostics).toContainEqual(expect.objectContaining({ code: 'shorted-source', element: 'Vr2' }));
+  });
+
   it('zero and negative values', () => {
     const t = recognizeTopology(net(halfWave(2).replace('CqS2 qDc_1 qDc_2 1u', 'CqS2 qDc_1 qDc_2 0').replace('Iload', 'Rneg qDc_2 0 -5\nIload')));
     const bad = t.diagnostics.filter((d) => d.code === 'non-positive-value').map((d) => d.element);

@@ -49,6 +49,8 @@ describe('formatEngineering', () => {
     [999.96, 'V', '1.00 kV'],
     [1, 'V', '1.00 V'],
     [123456, 'Ω', '123 kΩ'],
+    [1e-18, 'F', '1.00e-18 F'],
+    [2.5e16, 'V', '2.50e+16 V'],
   ])('%d %s → %s', (value, unit, expected) => {
     expect(formatEngineering(value, unit)).toBe(expected);
   });
