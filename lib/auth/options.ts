@@ -65,13 +65,31 @@ export async function authorizeCredentials(input: unknown): Promise<AuthorizedUs
   return { id: user.id, name: user.name, email: user.email };
 }
 
+/** The adapter methods next-auth v4 calls (it copies them with Object.keys, so they must be own properties). */
+const ADAPTER_METHODS = [
+  'createUser',
+  'getUser',
+  'getUserByEmail',
+  'getUserByAccount',
+  'updateUser',
+  'deleteUser',
+  'linkAccount',
+  'unlinkAccount',
+  'createSession',
+  'getSessionAndUser',
+  'updateSession',
+  'deleteSession',
+  'createVerificationToken',
+  'useVerificationToken',
+] as const;
+
 /**
- * The adapter is created on first use: `next build` imports this module with no database in
- * the environment, and Sequelize must not be constructed then.
+ * The Sequelize adapter on our models, created on first use: `next build` imports this module
+ * with no database in the environment, and Sequelize must not be constructed then.
  */
 function lazyAdapter(): Adapter {
   let inner: Adapter | null = null;
-  const get = (): Adapter => {
+  const get = (): Record<string, (...args: unknown[]) => unknown> => {
     if (!inner) {
       const { sequelize, models } = db();
       inner = SequelizeAdapter(sequelize, {
@@ -84,18 +102,9 @@ function lazyAdapter(): Adapter {
         } as unknown as NonNullable<Parameters<typeof SequelizeAdapter>[1]>['models'],
       });
     }
-    return inner;
+    return inner as unknown as Record<string, (...args: unknown[]) => unknown>;
   };
-  return new Proxy({} as Adapter, {
-    get(_target, prop) {
-      const a = get() as Record<string | symbol, unknown>;
-      const v = a[prop];
-      return typeof v === 'function' ? v.bind(a) : v;
-    },
-    has(_target, prop) {
-      return prop in get();
-    },
-  });
+  return Object.fromEntries(ADAPTER_METHODS.map((name) => [name, (...args: unknown[]) => get()[name](...args)])) as Adapter;
 }
 
 /** The next-auth options (route handler, getServerSession). */

@@ -7,7 +7,7 @@ import { encode } from 'next-auth/jwt';
 import * as signup from '@/app/api/account/signup/route';
 import * as password from '@/app/api/account/password/route';
 import * as me from '@/app/api/me/route';
-import { authorizeCredentials, RATE_LIMITED_ERROR } from '@/lib/auth/options';
+import { authOptions, authorizeCredentials, RATE_LIMITED_ERROR } from '@/lib/auth/options';
 import { MAX_FAILED_SIGN_INS } from '@/lib/auth/throttle';
 import type { MeDto, UserDto } from '@/lib/api/contract';
 import { db } from '@/lib/db';
@@ -88,6 +88,26 @@ describe('failed sign-in limit', () => {
     expect(await authorizeCredentials({ email: u.email, password: 'nope' })).toBeNull();
     expect((await db().models.SignInThrottle.findByPk(u.email))?.failures).toBe(1);
     expect(await authorizeCredentials({ email: u.email, password: PASSWORD })).toMatchObject({ id: u.id });
+  });
+});
+
+describe('next-auth adapter on our tables', () => {
+  it('exposes its methods as own properties and round-trips a sign-in link token', async () => {
+    const adapter = authOptions.adapter!;
+    // next-auth v4 wraps the adapter by copying Object.keys: methods must be enumerable own properties
+    expect(Object.keys(adapter)).toEqual(expect.arrayContaining(['getUserByEmail', 'createVerificationToken', 'useVerificationToken', 'updateUser']));
+    const byEmail = await adapter.getUserByEmail!(f.users.reviewer.email);
+    expect(byEmail).toMatchObject({ id: f.users.reviewer.id, email: f.users.reviewer.email });
+    expect(byEmail).not.toHaveProperty('passwordHash');
+    const expires = new Date(Date.now() + 60_000);
+    await adapter.createVerificationToken!({ identifier: f.users.reviewer.email, token: 'hashed-token-value', expires });
+    expect(await adapter.useVerificationToken!({ identifier: f.users.reviewer.email, token: 'hashed-token-value' })).toMatchObject({ identifier: f.users.reviewer.email });
+    expect(await adapter.useVerificationToken!({ identifier: f.users.reviewer.email, token: 'hashed-token-value' })).toBeNull();
+    const verified = new Date();
+    await adapter.updateUser!({ id: f.users.reviewer.id, emailVerified: verified });
+    expect((await db().models.User.findByPk(f.users.reviewer.id))?.emailVerified?.getTime()).toBe(verified.getTime());
+    const created = await adapter.createUser!({ email: freshEmail('linkonly'), emailVerified: verified });
+    expect(created.id).toMatch(/^[0-9a-f-]{36}$/);
   });
 });
 
