@@ -53,3 +53,13 @@ test('a wrong password is refused with a message', async ({ page }) => {
   await expect(page.getByTestId('signin-error')).toContainText('do not match');
   await expect(page).toHaveURL(/\/signin/);
 });
+
+test('a signed-out visit to a team page goes to sign-in and comes back after it', async ({ page }) => {
+  await page.goto('/teams');
+  await expect(page).toHaveURL(/\/signin\?callbackUrl=%2Fteams$/);
+  await expect(page.getByTestId('safety-footer')).toContainText('High voltage');
+  await new SignInPage(page).withPasswordHere('rue.reviewer@tallgrass.test', DEMO_PASSWORD);
+  await new TeamsPage(page).openTeam(TEAM);
+  await expect(page.getByText('You are a reviewer here.')).toBeVisible();
+  await expect(page.getByTestId('new-design')).toHaveCount(0);
+});

@@ -21,6 +21,10 @@ export class SignInPage {
   constructor(private readonly page: Page) {}
   async withPassword(email: string, password: string) {
     await this.page.goto('/signin');
+    await this.withPasswordHere(email, password);
+  }
+  /** Signs in on the sign-in page already open (e.g. after a redirect that carries a callbackUrl). */
+  async withPasswordHere(email: string, password: string) {
     await this.page.getByLabel('E-mail', { exact: true }).fill(email);
     await this.page.getByLabel('Password', { exact: true }).fill(password);
     // Enter submits the form (keyboard path).
