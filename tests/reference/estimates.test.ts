@@ -22,7 +22,7 @@ import { strayEfficiency } from '@/lib/circuit/estimates/stresses';
 import { bleederFor, dischargeTime } from '@/lib/circuit/measures/safety';
 import { compileDocument } from '@/lib/circuit/compile/compile';
 import { estimateFromNetlist } from '@/lib/circuit/estimates/estimate';
-import { halfWaveStarter } from '@/lib/circuit/document/starters';
+import { fullWaveStarter, halfWaveStarter, symmetricStarter } from '@/lib/circuit/document/starters';
 
 const eq = (n: number, c: number) => Array.from({ length: n }, () => c);
 function input(topology: EstimateInput['topology'], n: number, vp: number, f: number, c: number, i: number, extra: Partial<EstimateInput> = {}): EstimateInput {
@@ -42,6 +42,8 @@ describe('§8 worked examples', () => {
     // REFERENCES §8 E1 recomputation (deriv): full cubic at n = 30, exact optimum 29.75, crest-model drops.
     expect(textbookLoadedOutputV(30, 100e3, 1e-3, 150, 0.06e-6) / 1e3).toBeCloseTo(3950.6, 1);
     expect(e.optimumStagesCubic).toBeCloseTo(29.75, 2);
+    expect(e.maxOutputCubicV).toBeGreaterThanOrEqual(textbookLoadedOutputV(30, 100e3, 1e-3, 150, 0.06e-6));
+    expect(e.maxOutputCubicV / 1e3).toBeCloseTo(3950.6, 0);
     expect(e.dropMeanV / 1e3).toBeCloseTo(80.0, 1);
     expect(e.dropMaxV / 1e3).toBeCloseTo(76.9, 1);
     expect(e.unitDropV).toBeCloseTo(111.11, 2);
@@ -297,6 +299,31 @@ describe('§5 stresses, stray capacitance, stored energy; §6 warm-up and bleede
     expect(t.toSafeVoltageS).toBeCloseTo(0.81, 2);
     expect(t.toSafeEnergyS).toBeCloseTo(0.09, 2);
     expect(t.initialEnergyJ).toBeCloseTo(2.0, 9);
+  });
+});
+
+describe('estimateFromNetlist', () => {
+  const O = { amplitudeV: 1000, frequencyHz: 1000, capacitanceF: 1e-6, loadCurrentA: 1e-3 };
+  it('reads stages, drive and capacitors from a compiled netlist of each topology', () => {
+    for (const [doc, topology, dropMean] of [
+      [halfWaveStarter(4, O), 'half-wave', 52],
+      [fullWaveStarter(4, O), 'full-wave', 64 / 6 + 4 + 4 / 3],
+      [symmetricStarter(4, O), 'symmetric', 104],
+    ] as const) {
+      const c = compileDocument(doc);
+      if (!c.ok) throw new Error(c.reason);
+      const e = estimateFromNetlist(c.netlist, c.topology);
+      expect(e?.topology).toBe(topology);
+      expect(e?.stages).toBe(4);
+      // u = I/(fC) = 1 V: REFERENCES §1.3 (52u), §2 (n³/6 + n²/4 + n/3), §3 (2 × 52u).
+      expect(e?.dropMeanV).toBeCloseTo(dropMean, 9);
+    }
+  });
+
+  it('returns null for a custom circuit', () => {
+    const c = compileDocument(halfWaveStarter(2, O));
+    if (!c.ok) throw new Error(c.reason);
+    expect(estimateFromNetlist(c.netlist, { ...c.topology, kind: 'custom' })).toBeNull();
   });
 });
 

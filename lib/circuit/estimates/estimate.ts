@@ -25,6 +25,7 @@ import {
   optimumStagesCubic,
   optimumStagesLeading,
   textbookDropV,
+  textbookLoadedOutputV,
 } from './half-wave';
 import { capacitorEnergyJ, capacitorNoLoadV, diodePivV, outputStack, strayEfficiency } from './stresses';
 
@@ -96,6 +97,8 @@ export interface EstimateResult {
   optimumStagesCubic: number;
   /** Output at the leading-order optimum, (4/3)·n_opt·Vp per ladder (V; ∞ at zero load). */
   maxOutputV: number;
+  /** Output at the full-cubic optimum with the same drop formula the cubic maximises (V; ∞ at zero load). */
+  maxOutputCubicV: number;
   /** Incremental output impedance dV/dI of the crest model (Ω). */
   outputImpedanceOhm: number;
   /** No-load voltage and energy of every stage capacitor. */
@@ -153,6 +156,7 @@ export function estimateLadder(input: EstimateInput): EstimateResult {
   let nOpt: number;
   let nOptCubic: number;
   let warm: { cycles90: number; cycles99: number };
+  let cubicOutput: (stages: number) => number;
   if (topology === 'full-wave') {
     dropMeanK = fullWaveDropMeanCoefficient(pumpC, smoothC);
     dropMaxK = fullWaveDropMaxCoefficient(pumpC);
@@ -160,6 +164,7 @@ export function estimateLadder(input: EstimateInput): EstimateResult {
     textbook = fullWaveTextbookDropV(n, current, f, cMean);
     nOpt = fullWaveOptimumStagesLeading(vp, f, cMean, current);
     nOptCubic = fullWaveOptimumStagesCubic(vp, f, cMean, current);
+    cubicOutput = (m) => 2 * m * vp - (q / cMean) * (m ** 3 / 6 + m ** 2 / 4 + m / 3);
     warm = fullWaveWarmupCycles(n);
   } else {
     const sym = topology === 'symmetric';
@@ -169,6 +174,7 @@ export function estimateLadder(input: EstimateInput): EstimateResult {
     textbook = ladders * textbookDropV(n, current, f, cMean);
     nOpt = optimumStagesLeading(vp, f, cMean, current);
     nOptCubic = optimumStagesCubic(vp, f, cMean, current);
+    cubicOutput = (m) => ladders * textbookLoadedOutputV(m, vp, current, f, cMean);
     warm = halfWaveWarmupCycles(n);
   }
 
@@ -217,6 +223,7 @@ export function estimateLadder(input: EstimateInput): EstimateResult {
     optimumStages: nOpt,
     optimumStagesCubic: nOptCubic,
     maxOutputV: ladders * maxOutputLeadingV(nOpt, vp),
+    maxOutputCubicV: current > 0 ? cubicOutput(nOptCubic) : Infinity,
     outputImpedanceOhm: dropMeanK / f,
     capacitorV,
     diodePivV: diodePivV(vp),
