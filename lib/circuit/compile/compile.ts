@@ -16,6 +16,7 @@ import { portsOf, type DesignBlock, type DesignDocument, type DiodeModelParams }
 import { attachOrigins, hasErrors, type Diagnostic } from './diagnostics';
 import { recognizeTopology, type TopologyReport } from './topology';
 
+/** Compiler outcome; `ok: false` whenever a diagnostic has severity `error` (`reason` is the first one). */
 export type CompileResult =
   | { ok: true; netlist: Netlist; topology: TopologyReport; diagnostics: Diagnostic[] }
   | { ok: false; reason: string; diagnostics: Diagnostic[] };

@@ -9,6 +9,7 @@
  */
 import type { Netlist } from '../netlist/types';
 
+/** What went wrong; the canvas picks its wording and highlight from the code. */
 export type DiagnosticCode =
   | 'reversed-diode'
   | 'missing-diode'
@@ -27,8 +28,10 @@ export type DiagnosticCode =
   | 'mixed-frequency'
   | 'shorted-part';
 
+/** `error`: cannot be solved as drawn; `warning`: solves but is a design fault; `info`: a remark. */
 export type DiagnosticSeverity = 'error' | 'warning' | 'info';
 
+/** One finding, with the element, node, block and stage the canvas should highlight. */
 export interface Diagnostic {
   code: DiagnosticCode;
   severity: DiagnosticSeverity;

@@ -15,8 +15,11 @@ import { GROUND, type CapacitorElement, type Netlist, type NetlistElement } from
 import { attachOrigins, type Diagnostic } from './diagnostics';
 import { estimateLadder } from '../estimates/estimate';
 
+/** Sign of a ladder's output relative to ground. */
 export type Polarity = 'positive' | 'negative';
+/** Recognised shape of the whole circuit (REFERENCES §1–§3); `custom` is solved but not labelled. */
 export type TopologyKind = 'half-wave' | 'full-wave' | 'symmetric' | 'custom';
+/** Column a node belongs to: driven (pumping) x, antiphase driven x2, smoothing y, ground, source, other. */
 export type ColumnRole = 'driven' | 'driven2' | 'smoothing' | 'ground' | 'source' | 'other';
 
 /** Parts found in one stage (element names; absent = missing). */
@@ -30,6 +33,7 @@ export interface StageElements {
   diodes: string[];
 }
 
+/** One recognised ladder: its columns, parts per stage, drive and load (node and element names of the netlist). */
 export interface LadderReport {
   variant: 'half-wave' | 'full-wave';
   polarity: Polarity;
@@ -57,6 +61,7 @@ export interface LadderReport {
   loadElements: string[];
 }
 
+/** Result of topology recognition; voltages in V, frequency in Hz. */
 export interface TopologyReport {
   kind: TopologyKind;
   ladders: LadderReport[];

@@ -29,8 +29,10 @@ import {
 } from './half-wave';
 import { capacitorEnergyJ, capacitorNoLoadV, diodePivV, outputStack, strayEfficiency } from './stresses';
 
+/** Which set of design equations to use (REFERENCES §1 half-wave, §2 full-wave, §3 bipolar). */
 export type EstimateTopology = 'half-wave' | 'full-wave' | 'symmetric';
 
+/** Inputs of the closed-form estimate, SI units; capacitor arrays bottom stage first. */
 export interface EstimateInput {
   topology: EstimateTopology;
   /** Full stages per ladder (×2n each). */
@@ -50,6 +52,7 @@ export interface EstimateInput {
   strayCapacitanceF?: number;
 }
 
+/** No-load voltage stress and stored energy of one stage capacitor. */
 export interface CapacitorStress {
   stage: number;
   role: 'pumpC' | 'pump2C' | 'smoothC';
@@ -61,6 +64,7 @@ export interface CapacitorStress {
   energyJ: number;
 }
 
+/** Closed-form results; units in the names, ripple peak-to-peak, drops below the ideal 2nVp. */
 export interface EstimateResult {
   topology: EstimateTopology;
   stages: number;

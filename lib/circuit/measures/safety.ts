@@ -23,10 +23,12 @@ export const CHARGE_LIMIT_UP_TO_V = 15e3;
 export const STORED_ENERGY_LIMIT_J = 0.35;
 /** IEC 60950-1 §1.2.8.10 "hazardous energy level", 20 J stored (mem; superseded by IEC 62368-1). */
 export const HAZARDOUS_ENERGY_J = 20;
-/** Discharge to ≤ 60 V within 5 s: IEC 60204-1 §6.2.4 [S14] and IEC 61010-1 §6.10.3 [S13] (common practice target). */
+/** Safe residual voltage (V): discharge to ≤ 60 V within 5 s, IEC 60204-1 §6.2.4 [S14] and IEC 61010-1 §6.10.3 [S13] (common practice target). */
 export const SAFE_RESIDUAL_V = 60;
+/** Discharge time limit to the safe residual voltage (s). */
 export const DISCHARGE_TIME_LIMIT_S = 5;
 
+/** A node voltage to ground as the solver reports it. */
 export interface VoltageReading {
   /** DC level (mean) of the node to ground (V). */
   dcV: number;
@@ -36,8 +38,10 @@ export interface VoltageReading {
   rmsV?: number;
 }
 
+/** IEC 62368-1 electrical energy source classes (mem). */
 export type Iec62368Class = 'ES1' | 'ES2' | 'ES3';
 
+/** Outcome of {@link classifyVoltage}. */
 export interface VoltageClass {
   /** IEC 61010-1 normal condition: would an accessible part at this voltage be hazardous live (mem)? */
   hazardousLive: boolean;
@@ -134,6 +138,7 @@ export function bleederFor(input: StackSpec & { initialV: number; safeV?: number
   return { maxResistanceOhm: r, tauS: tau, currentA: v0 / r, powerW: (v0 * v0) / r };
 }
 
+/** The REFERENCES §7 suggested tool warnings. */
 export type SafetyWarningCode =
   | 'hazardous-voltage'
   | 'stored-charge'
@@ -142,6 +147,7 @@ export type SafetyWarningCode =
   | 'no-bleeder'
   | 'slow-discharge';
 
+/** One safety warning with the standard or source behind its threshold. */
 export interface SafetyWarning {
   code: SafetyWarningCode;
   message: string;

@@ -24,6 +24,7 @@ export const MAX_REPORTED_ISSUES = 200;
 /** A problem found at a 1-based source line (0 = the whole input). */
 export type ParseIssue = { line: number; message: string };
 
+/** Parser outcome: the netlist with warnings, or every error found (each with its line). */
 export type ParseResult =
   | { ok: true; netlist: Netlist; warnings: ParseIssue[] }
   | { ok: false; errors: ParseIssue[] };
