@@ -1,28 +1,30 @@
 /**
- * The list columns "topology" and "stages" for a document, worked out from its stage blocks:
- * all half-wave stages of one polarity → 'half-wave'; all full-wave → 'full-wave'; half-wave
- * stages of both polarities in equal numbers → 'symmetric' (stages counted per ladder); no
- * stages → null; anything else → 'custom'.
+ * The list columns "topology" and "stages" for a document, copied onto the design row at each
+ * save: the engine's compileDocument() recognises the ladder(s); `stages` is the stage count of
+ * the longest ladder (for 'symmetric', each of the two ladders). A document that does not
+ * compile shows null for both.
  */
-import type { DesignDocument } from '../circuit/document/schema';
+import { compileDocument, type DesignDocument } from '../circuit';
 
 /** What the designs list shows about a document's circuit. */
 export interface TopologySummary {
+  /** 'half-wave' | 'full-wave' | 'symmetric' | 'custom', or null when it did not compile. */
   topology: string | null;
-  /** Stages per ladder (for 'symmetric', each of the two ladders). */
+  /** Stages per ladder, or null. */
   stages: number | null;
 }
 
 /** Summarise `doc` for the designs list. */
 export function summariseTopology(doc: DesignDocument): TopologySummary {
-  const stages = doc.blocks.flatMap((b) => (b.kind === 'stage' ? [b.data] : []));
-  if (stages.length === 0) return { topology: null, stages: null };
-  const half = stages.filter((s) => s.variant === 'half');
-  const positive = stages.filter((s) => s.polarity === 'positive').length;
-  const negative = stages.length - positive;
-  if (half.length === 0) return { topology: positive === 0 || negative === 0 ? 'full-wave' : 'custom', stages: stages.length };
-  if (half.length !== stages.length) return { topology: 'custom', stages: stages.length };
-  if (positive === 0 || negative === 0) return { topology: 'half-wave', stages: stages.length };
-  if (positive === negative) return { topology: 'symmetric', stages: positive };
-  return { topology: 'custom', stages: stages.length };
+  let result: ReturnType<typeof compileDocument>;
+  try {
+    result = compileDocument(doc);
+  } catch (e) {
+    // the compiler reports expected faults as values; a throw is its bug, and must not block a save
+    console.error('[topology] compileDocument threw:', e instanceof Error ? e.message : e);
+    return { topology: null, stages: null };
+  }
+  if (!result.ok) return { topology: null, stages: null };
+  const ladders = result.topology.ladders;
+  return { topology: result.topology.kind, stages: ladders.length ? Math.max(...ladders.map((l) => l.stages)) : null };
 }

@@ -36,6 +36,13 @@ describe('scripts/seed.ts', () => {
     expect(await counts()).toEqual(first);
     const forks = await db().models.Design.findAll({ where: { forkedFromDesignId: { [Op.ne]: null } } });
     expect(forks).toHaveLength(1);
+    const listed = await db().models.Design.findAll({ attributes: ['title', 'topology', 'stages'], order: [['title', 'ASC']], raw: true });
+    expect(listed.map((d) => [d.topology, d.stages])).toEqual([
+      ['half-wave', 4],
+      ['half-wave', 3],
+      ['half-wave', 6],
+      ['symmetric', 4],
+    ]);
     expect(await authorizeCredentials({ email: 'val.viewer@tallgrass.test', password: 'kilorung-demo-1' })).toMatchObject({ email: 'val.viewer@tallgrass.test' });
   });
 });
