@@ -6,6 +6,8 @@ import { SignUpPage, TeamDesignsPage, TeamSettingsPage, TeamsPage } from './supp
 // The whole first-day journey: sign up by e-mail link, build a team, invite a colleague who
 // accepts and forks the design.
 test('sign up, create a team and a design, invite a colleague who accepts and forks it', async ({ page, browser, request }) => {
+  // Two people, two sign-ups by mail, about twenty page loads: longer than one screen's test.
+  test.setTimeout(180_000);
   const ownerEmail = freshEmail('owner');
   const colleagueEmail = freshEmail('colleague');
   const teamName = `Bench ${Date.now().toString(36)}`;
