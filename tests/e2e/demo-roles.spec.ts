@@ -63,3 +63,21 @@ test('a signed-out visit to a team page goes to sign-in and comes back after it'
   await expect(page.getByText('You are a reviewer here.')).toBeVisible();
   await expect(page.getByTestId('new-design')).toHaveCount(0);
 });
+
+test('after five wrong passwords the address is refused for a while', async ({ page }) => {
+  const email = freshEmail('locked');
+  await page.goto('/signin');
+  await page.getByLabel('E-mail', { exact: true }).fill(email);
+  const password = page.getByLabel('Password', { exact: true });
+  const error = page.getByTestId('signin-error');
+  for (let i = 1; i <= 5; i++) {
+    await password.fill(`wrong-password-${i}`);
+    await page.getByTestId('password-signin-submit').click();
+    await expect(error).toContainText('do not match');
+    // Wait for the form to be usable again before the next try.
+    await expect(page.getByTestId('password-signin-submit')).toBeEnabled();
+  }
+  await password.fill('wrong-password-6');
+  await page.getByTestId('password-signin-submit').click();
+  await expect(error).toContainText('Too many attempts, try again later.');
+});
