@@ -32,14 +32,17 @@ export interface DesignListParams {
 
 // ---- reads ----
 
+/** The signed-in user and their teams (`GET /api/me`). */
 export function useMe() {
   return useQuery({ queryKey: keys.me, queryFn: ({ signal }) => api('GET /api/me', { signal }) });
 }
 
+/** My teams with my role in each (`GET /api/teams`). */
 export function useTeams() {
   return useQuery({ queryKey: keys.teams, queryFn: ({ signal }) => api('GET /api/teams', { signal }) });
 }
 
+/** One team with my role in it; 404 for non-members (`GET /api/teams/:teamId`). */
 export function useTeam(teamId: string) {
   return useQuery({
     queryKey: keys.team(teamId),
@@ -47,6 +50,7 @@ export function useTeam(teamId: string) {
   });
 }
 
+/** Members of a team with their roles (`GET /api/teams/:teamId/members`). */
 export function useMembers(teamId: string) {
   return useQuery({
     queryKey: keys.members(teamId),
@@ -63,6 +67,7 @@ export function useInvitations(teamId: string, enabled: boolean) {
   });
 }
 
+/** A team's designs, searched and sorted by the server; keeps the previous list while a new search loads. */
 export function useDesigns(teamId: string, q: DesignListParams) {
   return useQuery({
     queryKey: keys.designList(teamId, q),
@@ -76,6 +81,7 @@ export function useDesigns(teamId: string, q: DesignListParams) {
   });
 }
 
+/** One design with its permissions and its latest revision (document included). */
 export function useDesign(designId: string) {
   return useQuery({
     queryKey: keys.design(designId),
@@ -83,6 +89,7 @@ export function useDesign(designId: string) {
   });
 }
 
+/** Revision history of a design, newest first as the server sends it. */
 export function useRevisions(designId: string) {
   return useQuery({
     queryKey: keys.revisions(designId),
@@ -100,6 +107,7 @@ export function useRevision(designId: string, n: number | null) {
   });
 }
 
+/** What an invitation link is for; public, the token is the secret. */
 export function useInvitationPreview(token: string) {
   return useQuery({
     queryKey: keys.invitation(token),
@@ -110,18 +118,21 @@ export function useInvitationPreview(token: string) {
 
 // ---- writes ----
 
+/** Creates an account (`POST /api/account/signup`); 409 when the e-mail is taken. */
 export function useSignUp() {
   return useMutation({
     mutationFn: (body: { email: string; name: string; password: string }) => api('POST /api/account/signup', { body }),
   });
 }
 
+/** Changes my password; the current one is checked by the server. */
 export function useChangePassword() {
   return useMutation({
     mutationFn: (body: { currentPassword: string; newPassword: string }) => api('POST /api/account/password', { body }),
   });
 }
 
+/** Creates a team with me as owner. */
 export function useCreateTeam() {
   const qc = useQueryClient();
   return useMutation({
@@ -132,6 +143,7 @@ export function useCreateTeam() {
   });
 }
 
+/** Owner: invites an e-mail address with a role (the server mails the accept link). */
 export function useInvite(teamId: string) {
   const qc = useQueryClient();
   return useMutation({
@@ -141,6 +153,7 @@ export function useInvite(teamId: string) {
   });
 }
 
+/** Owner: revokes a pending invitation. */
 export function useRevokeInvitation(teamId: string) {
   const qc = useQueryClient();
   return useMutation({
@@ -150,6 +163,7 @@ export function useRevokeInvitation(teamId: string) {
   });
 }
 
+/** Owner: changes a member's role; the last owner cannot be demoted (409 `last_owner`). */
 export function useChangeRole(teamId: string) {
   const qc = useQueryClient();
   return useMutation({
@@ -170,6 +184,7 @@ export function useRemoveMember(teamId: string) {
   });
 }
 
+/** Accepts an invitation as the signed-in user (whose e-mail must match). */
 export function useAcceptInvitation(token: string) {
   const qc = useQueryClient();
   return useMutation({
@@ -184,6 +199,7 @@ export function useAcceptInvitation(token: string) {
   });
 }
 
+/** Creates a design with its first revision from a document. */
 export function useCreateDesign(teamId: string) {
   const qc = useQueryClient();
   return useMutation({
@@ -193,6 +209,7 @@ export function useCreateDesign(teamId: string) {
   });
 }
 
+/** Renames, shares/unshares or archives a design. */
 export function useUpdateDesign(designId: string) {
   const qc = useQueryClient();
   return useMutation({
@@ -207,6 +224,7 @@ export function useUpdateDesign(designId: string) {
   });
 }
 
+/** Copies a design (latest or a chosen revision) into a new design I own. */
 export function useForkDesign(designId: string) {
   const qc = useQueryClient();
   return useMutation({
