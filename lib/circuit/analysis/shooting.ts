@@ -8,9 +8,9 @@
  * (sensitivity) matrix M = ∂φ/∂s, propagated along the period's own time steps by re-using
  * each step's factorised Jacobian: J_{k+1}·X_{k+1} = −(α1·C_k·X_k + α2·C_{k−1}·X_{k−1}).
  *
- * Safeguards: backtracking on ‖φ(s) − s‖, a plain one-period (Picard) step when Newton does not
- * reduce the residual, and a frozen time grid once the residual is small so that the period map
- * is smooth and Newton converges quadratically.
+ * Globalisation: pseudo-transient continuation (below), a trust region on the state change, and
+ * a frozen time grid once the residual is small so that the period map is smooth and Newton
+ * converges quadratically.
  */
 import { DenseLu } from '../linalg/dense-lu';
 import type { Circuit } from '../mna/circuit';
@@ -124,6 +124,8 @@ export interface ShootingOptions {
   freezeBelow: number;
   /** Most plain periods integrated from the initial state before Newton starts. */
   warmupPeriods: number;
+  /** Initial pseudo-time step of the continuation, in periods. */
+  initialPeriods: number;
 }
 
 export type ShootingOutcome =
@@ -202,6 +204,7 @@ export function shootPeriodicSteadyState(
   if (!first.ok) return { ok: false, reason: first.reason, iterations: 0, residual: Infinity, periodsIntegrated: periods, history };
   let run = first.run;
   let res = relResidual(s, run.endV, floorV);
+  let pseudoK = o.initialPeriods;
   history.push(res.rel);
   for (let it = 1; it <= o.maxIterations; it++) {
     if (res.rel <= o.tolerance) {
@@ -218,42 +221,53 @@ export function shootPeriodicSteadyState(
       history.push(res.rel);
       if (res.rel <= o.tolerance) continue;
     }
+    // Pseudo-transient continuation on the period map (Kelley & Keyes, SIAM J. Numer. Anal.
+    // 35(2), 1998), which is backward Euler over K periods of the envelope ds/dc = φ(s) − s:
+    // ((1 + 1/K)·I − M)·Δ = φ(s) − s. Small K is a damped plain-period step and keeps the
+    // system regular where M has unit eigenvalues (diodes that do not conduct yet); K → ∞ is
+    // Newton's step and gives quadratic convergence at the end.
     const mono = run.monodromy!;
-    const a = Float64Array.from(mono);
-    for (let j = 0; j < m; j++) a[j * m + j] -= 1;
-    const rhs = new Float64Array(m);
-    for (let j = 0; j < m; j++) rhs[j] = -(run.endV[j] - s[j]);
-    const f = DenseLu.factor(a, m);
     let accepted = false;
-    if (f.ok) {
+    for (let tries = 0; tries < 8 && !accepted; tries++) {
+      const a = new Float64Array(m * m);
+      const shift = 1 + 1 / pseudoK;
+      for (let i = 0; i < m * m; i++) a[i] = -mono[i];
+      for (let j = 0; j < m; j++) a[j * m + j] += shift;
+      const rhs = new Float64Array(m);
+      for (let j = 0; j < m; j++) rhs[j] = run.endV[j] - s[j];
+      const f = DenseLu.factor(a, m);
+      if (!f.ok) {
+        pseudoK /= 8;
+        continue;
+      }
       const delta = f.lu.solve(rhs);
       // Trust region: no state moves by more than a quarter of the drive amplitude at once.
       let big = 0;
       for (let j = 0; j < m; j++) big = Math.max(big, Math.abs(delta[j]));
-      let lambda = Math.min(1, (0.25 * o.control.vScaleV) / (big || 1));
-      for (let tries = 0; tries < 4 && !accepted; tries++, lambda /= 2) {
-        const trial = new Float64Array(m);
-        for (let j = 0; j < m; j++) trial[j] = s[j] + lambda * delta[j];
-        const out = integratePeriod(engine, trial, run.record.solutions[run.record.solutions.length - 1], o.periodS, control, true);
-        periods++;
-        if (!out.ok) continue;
-        const r2 = relResidual(trial, out.run.endV, floorV);
-        if (r2.norm < res.norm || r2.rel <= o.tolerance) {
-          s = trial;
-          run = out.run;
-          res = r2;
-          accepted = true;
-        }
+      const lambda = Math.min(1, (0.25 * o.control.vScaleV) / (big || 1));
+      const trial = new Float64Array(m);
+      for (let j = 0; j < m; j++) trial[j] = s[j] + lambda * delta[j];
+      const out = integratePeriod(engine, trial, lastSolution(run), o.periodS, control, true);
+      periods++;
+      if (!out.ok) {
+        pseudoK = Math.max(1, pseudoK / 8);
+        continue;
+      }
+      const r2 = relResidual(trial, out.run.endV, floorV);
+      if (r2.norm < res.norm || r2.rel <= o.tolerance) {
+        // Switched evolution relaxation: grow K as the residual falls.
+        const gain = res.norm / Math.max(r2.norm, 1e-300);
+        pseudoK = Math.min(1e15, pseudoK * Math.min(100, Math.max(0.5, gain)) * (r2.norm < res.norm ? 2 : 1));
+        s = trial;
+        run = out.run;
+        res = r2;
+        accepted = true;
+      } else {
+        pseudoK = Math.max(1, pseudoK / 8);
       }
     }
     if (!accepted) {
-      // One plain period: always a valid (if slow) step towards the steady state.
-      s = Float64Array.from(run.endV);
-      const out = integratePeriod(engine, s, run.record.solutions[run.record.solutions.length - 1], o.periodS, control, true);
-      periods++;
-      if (!out.ok) return { ok: false, reason: out.reason, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
-      run = out.run;
-      res = relResidual(s, run.endV, floorV);
+      return { ok: false, reason: `shooting stalled (residual ${res.rel.toExponential(2)})`, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
     }
     history.push(res.rel);
   }
