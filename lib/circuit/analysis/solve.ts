@@ -1,0 +1,302 @@
+/**
+ * The engine's public solve: netlist → devices bound into one MNA system → periodic steady
+ * state by shooting–Newton (see `shooting.ts`) → measures over the converged period, and
+ * optionally the warm-up transient from power-on (all capacitors empty) integrated until the
+ * output's per-cycle mean reaches 99 % of its steady-state mean. Every solve has a wall-clock
+ * budget and returns a plain, serialisable value; failures are `{ ok: false, reason }`.
+ */
+import type { Netlist } from '../netlist/types';
+import { buildCircuit, type Circuit, type SolverDiagnostic } from '../mna/circuit';
+import { measurePeriod, type NodeMeasure, type PartMeasure, type PeriodMeasures } from '../measures/period-measures';
+import { noLoadGuess } from './initial-guess';
+import { solveOperatingPoint } from './operating-point';
+import { integratePeriod, shootPeriodicSteadyState } from './shooting';
+import { TransientEngine, type StepControl } from './transient';
+
+export interface SolveOptions {
+  /** Also integrate the warm-up transient from power-on. Default false. */
+  warmup?: boolean;
+  /** Wall-clock budget for the whole solve (ms). Default 20 000. */
+  budgetMs?: number;
+  /** Output node names; default: the node(s) with the largest |mean|. */
+  outputNodes?: string[];
+  /** Waveform points per node (0 = none). Default 200, at most 400. */
+  waveformPoints?: number;
+  /** Relative period-to-period change accepted as steady state. Default 1e-6. */
+  tolerance?: number;
+  /** LTE tolerance relative to the drive amplitude. Default 1e-6. */
+  lteRel?: number;
+  /** Largest time step as a fraction of the period. Default 1/100. */
+  maxStepFraction?: number;
+}
+
+export interface WarmupResult {
+  /** Time to reach 90 % / 99 % of the steady-state output mean (s); null if not reached. */
+  t90: number | null;
+  t99: number | null;
+  /** The same in drive cycles. */
+  cycles90: number | null;
+  cycles99: number | null;
+  /** Cycles integrated. */
+  cyclesIntegrated: number;
+  /** Per-cycle mean of the (first) output (V), one value per cycle. */
+  cycleMeans: number[];
+}
+
+export interface SolveStats {
+  solveMs: number;
+  newtonIterations: number;
+  shootingIterations: number;
+  periodsIntegrated: number;
+  /** Accepted time points in the steady-state period. */
+  steps: number;
+  unknowns: number;
+  bandwidth: { lower: number; upper: number };
+  /** Period-to-period change of the converged state (relative). */
+  residual: number;
+  warmupMs?: number;
+}
+
+export type SolveResult =
+  | {
+      ok: true;
+      periodS: number;
+      frequencyHz: number;
+      outputs: { node: string; polarity: 'positive' | 'negative' }[];
+      nodes: Record<string, NodeMeasure>;
+      parts: Record<string, PartMeasure>;
+      power: PeriodMeasures['power'];
+      energy: PeriodMeasures['energy'];
+      checks: PeriodMeasures['checks'];
+      warmup?: WarmupResult;
+      stats: SolveStats;
+      diagnostics: SolverDiagnostic[];
+    }
+  | { ok: false; reason: string; diagnostics: SolverDiagnostic[]; stats?: Partial<SolveStats> };
+
+function drivePeriod(circuit: Circuit): { ok: true; frequencyHz: number; amplitude: number } | { ok: false; reason: string } {
+  const freqs = circuit.sources.map((s) => s.frequencyHz()).filter((f) => f > 0);
+  let amplitude = 0;
+  for (const v of circuit.voltageSources) amplitude = Math.max(amplitude, Math.abs(v.sine?.amplitude ?? 0) + Math.abs(v.sine?.offsetV ?? v.dcV));
+  for (const v of circuit.voltageSources) {
+    if (v.sine && v.sine.damping !== 0) return { ok: false, reason: `${v.name}: a damped sine (THETA ≠ 0) has no periodic steady state` };
+  }
+  if (freqs.length === 0) return { ok: true, frequencyHz: 0, amplitude };
+  const f0 = Math.min(...freqs);
+  for (const f of freqs) {
+    const r = f / f0;
+    if (Math.abs(r - Math.round(r)) > 1e-9 * r) return { ok: false, reason: `source frequencies ${f0} Hz and ${f} Hz are not harmonics of one period` };
+  }
+  return { ok: true, frequencyHz: f0, amplitude };
+}
+
+/** Picks output nodes: the largest positive mean, and the most negative one if comparable. */
+function pickOutputs(nodes: Record<string, NodeMeasure>): { node: string; polarity: 'positive' | 'negative' }[] {
+  let pos: [string, number] | null = null;
+  let neg: [string, number] | null = null;
+  for (const [name, m] of Object.entries(nodes)) {
+    if (m.mean > 0 && (!pos || m.mean > pos[1])) pos = [name, m.mean];
+    if (m.mean < 0 && (!neg || m.mean < neg[1])) neg = [name, m.mean];
+  }
+  const out: { node: string; polarity: 'positive' | 'negative' }[] = [];
+  const big = Math.max(pos?.[1] ?? 0, -(neg?.[1] ?? 0));
+  if (pos && pos[1] >= 0.5 * big) out.push({ node: pos[0], polarity: 'positive' });
+  if (neg && -neg[1] >= 0.5 * big) out.push({ node: neg[0], polarity: 'negative' });
+  return out;
+}
+
+/** Periodic steady state (and optionally warm-up) of a netlist. */
+export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): SolveResult {
+  const started = performance.now();
+  const deadline = started + (options.budgetMs ?? 20_000);
+  const built = buildCircuit(netlist);
+  if (!built.ok) return { ok: false, reason: built.reason, diagnostics: built.diagnostics };
+  const circuit = built.circuit;
+  const diagnostics: SolverDiagnostic[] = [];
+  const drive = drivePeriod(circuit);
+  if (!drive.ok) return { ok: false, reason: drive.reason, diagnostics: [{ severity: 'error', code: 'not-periodic', message: drive.reason }] };
+  if (drive.frequencyHz === 0) {
+    const op = solveOperatingPoint(circuit);
+    if (!op.ok) return { ok: false, reason: op.reason, diagnostics: [{ severity: 'error', code: 'no-convergence', message: op.reason }] };
+    const nodes: Record<string, NodeMeasure> = {};
+    for (const name of circuit.nodeNames) {
+      const v = op.x[circuit.nodeOffset.get(name)!];
+      nodes[name] = { mean: v, min: v, max: v, ripple: 0 };
+    }
+    diagnostics.push({ severity: 'info', code: 'dc-only', message: `no AC source: DC operating point by ${op.method}` });
+    return {
+      ok: true,
+      periodS: 0,
+      frequencyHz: 0,
+      outputs: options.outputNodes?.map((node) => ({ node, polarity: (nodes[node]?.mean ?? 0) < 0 ? 'negative' : 'positive' })) ?? pickOutputs(nodes),
+      nodes,
+      parts: {},
+      power: { sourceW: 0, loadW: 0, lossW: 0, efficiency: null },
+      energy: { totalJ: 0, outputs: {} },
+      checks: { kclResidual: 0, chargeBalance: 0 },
+      stats: { solveMs: performance.now() - started, newtonIterations: op.iterations, shootingIterations: 0, periodsIntegrated: 0, steps: 0, unknowns: circuit.size, bandwidth: circuit.band, residual: 0 },
+      diagnostics,
+    };
+  }
+  const periodS = 1 / drive.frequencyHz;
+  const vScale = drive.amplitude > 0 ? drive.amplitude : 1;
+  const control: StepControl = {
+    hMaxS: periodS * (options.maxStepFraction ?? 0.01),
+    hMinS: periodS * 1e-13,
+    hInitS: periodS * 1e-4,
+    lteRel: options.lteRel ?? 1e-6,
+    lteAbsV: 1e-9 * vScale,
+    vScaleV: vScale,
+    deadlineMs: deadline,
+  };
+  const guess = noLoadGuess(circuit, drive.frequencyHz);
+  const engine = new TransientEngine(circuit);
+  const s0 = guess?.branchV ?? new Float64Array(circuit.slots.length);
+  if (!guess) diagnostics.push({ severity: 'warning', code: 'no-guess', message: 'no-load initial guess failed; starting from empty capacitors' });
+  const shot = shootPeriodicSteadyState(circuit, engine, s0, guess?.x, {
+    periodS,
+    tolerance: options.tolerance ?? 1e-6,
+    maxIterations: 80,
+    control,
+    freezeBelow: 1e-4,
+    warmupPeriods: 1,
+    initialPeriods: 1,
+  });
+  const statsBase = {
+    newtonIterations: engine.newton.totalIterations,
+    periodsIntegrated: shot.periodsIntegrated,
+    shootingIterations: shot.iterations,
+    unknowns: circuit.size,
+    bandwidth: circuit.band,
+    residual: shot.residual,
+  };
+  if (!shot.ok) {
+    return {
+      ok: false,
+      reason: shot.reason,
+      diagnostics: [...diagnostics, { severity: 'error', code: 'no-steady-state', message: shot.reason }],
+      stats: { ...statsBase, solveMs: performance.now() - started },
+    };
+  }
+  // Measures come from one more period on a finer, error-controlled grid from the converged
+  // state: narrow diode current pulses need more points than the state needs for convergence.
+  const fine: StepControl = { ...control, lteRel: control.lteRel / 20, hMaxS: control.hMaxS / 4 };
+  const check = integratePeriod(engine, shot.state, shot.run.record.solutions[0], periodS, fine, false);
+  const record = check.ok ? check.run.record : shot.run.record;
+  if (check.ok) {
+    let worst = 0;
+    let scale = 1e-6 * vScale;
+    for (let j = 0; j < shot.state.length; j++) {
+      worst = Math.max(worst, Math.abs(check.run.endV[j] - shot.state[j]));
+      scale = Math.max(scale, Math.abs(shot.state[j]));
+    }
+    diagnostics.push({ severity: 'info', code: 'period-check', message: `period-to-period change on the finer measuring grid ${(worst / scale).toExponential(2)} (relative)` });
+  }
+  const points = Math.min(400, Math.max(0, options.waveformPoints ?? 200));
+  const firstPass = measurePeriod(circuit, record, [], 0);
+  const outputs = options.outputNodes?.map((node) => ({ node, polarity: ((firstPass.nodes[node]?.mean ?? 0) < 0 ? 'negative' : 'positive') as 'positive' | 'negative' })) ?? pickOutputs(firstPass.nodes);
+  const m = measurePeriod(circuit, record, outputs.map((o) => o.node), points);
+  const solveMs = performance.now() - started;
+  let warmup: WarmupResult | undefined;
+  let warmupMs: number | undefined;
+  if (options.warmup && outputs.length > 0) {
+    const w0 = performance.now();
+    const w = solveWarmupFrom(circuit, periodS, outputs[0].node, m.nodes[outputs[0].node].mean, vScale, deadline);
+    warmupMs = performance.now() - w0;
+    if (w.ok) warmup = w.result;
+    else diagnostics.push({ severity: 'warning', code: 'warmup-incomplete', message: w.reason });
+    if (w.ok && w.result.t99 === null) diagnostics.push({ severity: 'warning', code: 'warmup-incomplete', message: 'warm-up stopped before 99 % of the steady-state output' });
+  }
+  return {
+    ok: true,
+    periodS,
+    frequencyHz: drive.frequencyHz,
+    outputs,
+    nodes: m.nodes,
+    parts: m.parts,
+    power: m.power,
+    energy: m.energy,
+    checks: m.checks,
+    warmup,
+    stats: { ...statsBase, newtonIterations: engine.newton.totalIterations, solveMs, steps: shot.run.steps, warmupMs },
+    diagnostics,
+  };
+}
+
+/**
+ * Warm-up from power-on: transient analysis from empty capacitors with a coarser LTE tolerance,
+ * one cycle at a time, recording each cycle's mean output; stops at 99.5 % of the steady-state
+ * mean (or the budget). Crossing times of 90 % and 99 % are interpolated between cycle ends.
+ */
+function solveWarmupFrom(
+  circuit: Circuit,
+  periodS: number,
+  outputNode: string,
+  finalMeanV: number,
+  vScale: number,
+  deadline: number,
+): { ok: true; result: WarmupResult } | { ok: false; reason: string } {
+  const engine = new TransientEngine(circuit);
+  engine.start(0, new Float64Array(circuit.slots.length));
+  const out = circuit.nodeOffset.get(outputNode)!;
+  const control: StepControl = {
+    hMaxS: periodS / 40,
+    hMinS: periodS * 1e-13,
+    hInitS: periodS * 1e-4,
+    lteRel: 2e-5,
+    lteAbsV: 1e-8 * vScale,
+    vScaleV: vScale,
+    deadlineMs: deadline,
+  };
+  const means: number[] = [];
+  const target = Math.abs(finalMeanV);
+  let c90: number | null = null;
+  let c99: number | null = null;
+  const cross = (frac: number, c: number): number => {
+    const prev = c > 0 ? Math.abs(means[c - 1]) : 0;
+    const cur = Math.abs(means[c]);
+    const level = frac * target;
+    return c + (cur > prev ? (level - prev) / (cur - prev) : 1);
+  };
+  for (let cycle = 0; cycle < 100_000; cycle++) {
+    let acc = 0;
+    let tPrev = engine.timeS;
+    let vPrev = engine.x[out];
+    const r = engine.run((cycle + 1) * periodS, control, (t, _h, x) => {
+      acc += 0.5 * (x[out] + vPrev) * (t - tPrev);
+      tPrev = t;
+      vPrev = x[out];
+    });
+    if (!r.ok) {
+      if (means.length === 0) return { ok: false, reason: `warm-up: ${r.reason}` };
+      break;
+    }
+    means.push(acc / periodS);
+    const c = means.length - 1;
+    const level = Math.abs(means[c]);
+    if (c90 === null && level >= 0.9 * target) c90 = cross(0.9, c);
+    if (c99 === null && level >= 0.99 * target) c99 = cross(0.99, c);
+    if (level >= 0.995 * target) break;
+  }
+  return {
+    ok: true,
+    result: {
+      t90: c90 === null ? null : c90 * periodS,
+      t99: c99 === null ? null : c99 * periodS,
+      cycles90: c90,
+      cycles99: c99,
+      cyclesIntegrated: means.length,
+      cycleMeans: means,
+    },
+  };
+}
+
+/** Periodic steady state only. */
+export function solveSteadyState(netlist: Netlist, options: Omit<SolveOptions, 'warmup'> = {}): SolveResult {
+  return solveNetlist(netlist, { ...options, warmup: false });
+}
+
+/** Steady state plus the warm-up transient from power-on. */
+export function solveWarmup(netlist: Netlist, options: Omit<SolveOptions, 'warmup'> = {}): SolveResult {
+  return solveNetlist(netlist, { ...options, warmup: true });
+}
