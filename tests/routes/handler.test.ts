@@ -1,0 +1,59 @@
+/**
+ * The route wrapper on its own: signed-in check before input, body limits, content type, and
+ * unexpected errors answered as a bare 500 whose log line carries no request secrets.
+ */
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { z } from 'zod';
+import { publicRoute, route } from '@/lib/api/handler';
+import { AppError } from '@/lib/errors';
+import { call, setupFixtures, teardown, type Fixtures } from './helpers';
+
+let f: Fixtures;
+beforeAll(async () => {
+  f = await setupFixtures();
+});
+afterAll(teardown);
+
+const echo = publicRoute({ body: z.object({ n: z.int() }) }, async ({ body }) => ({ n: body.n }));
+
+describe('route wrapper', () => {
+  it('checks the session before reading the body', async () => {
+    const guarded = route({ body: z.object({ n: z.int() }) }, async ({ body, user }) => ({ n: body.n, user: user.id }));
+    expect((await call(guarded, '/x', { method: 'POST', body: '{not json' })).status).toBe(401);
+    const ok = await call(guarded, '/x', { method: 'POST', body: { n: 3 }, as: f.users.viewer });
+    expect(ok).toEqual({ status: 200, body: { n: 3, user: f.users.viewer.id } });
+  });
+
+  it('accepts +json types and charset parameters, refuses other types', async () => {
+    expect((await call(echo, '/x', { method: 'POST', body: { n: 1 }, headers: { 'content-type': 'application/merge-patch+json' } })).status).toBe(200);
+    expect((await call(echo, '/x', { method: 'POST', body: { n: 1 }, headers: { 'content-type': 'application/json; charset=utf-8' } })).status).toBe(200);
+    const form = await call(echo, '/x', { method: 'POST', body: 'n=1', headers: { 'content-type': 'application/x-www-form-urlencoded' } });
+    expect(form.status).toBe(415);
+    expect(form.body).toEqual({ error: { code: 'unsupported_media_type', message: expect.any(String) } });
+  });
+
+  it('an empty body is validated as {} (422 naming the field)', async () => {
+    const res = await call(echo, '/x', { method: 'POST' });
+    expect(res.status).toBe(422);
+    expect(res.body).toMatchObject({ error: { code: 'invalid', field: 'n' } });
+  });
+
+  it('AppErrors keep their status and extras; unexpected errors are a bare 500 logged without secrets', async () => {
+    const conflicted = publicRoute({}, async () => {
+      throw new AppError('conflict', 'stale', { latestRevision: 7 });
+    });
+    expect(await call(conflicted, '/x')).toEqual({ status: 409, body: { error: { code: 'conflict', message: 'stale', latestRevision: 7 } } });
+
+    const log = vi.spyOn(console, 'error').mockImplementation(() => undefined);
+    const broken = publicRoute({}, async () => {
+      throw new Error('database exploded');
+    });
+    const res = await call(broken, '/api/broken', { as: f.users.owner, headers: { authorization: 'Bearer very-secret-value' } });
+    expect(res).toEqual({ status: 500, body: { error: { code: 'internal', message: 'something went wrong on the server' } } });
+    const logged = log.mock.calls.map((c) => c.join(' ')).join('\n');
+    log.mockRestore();
+    expect(logged).toContain('GET /api/broken');
+    expect(logged).toContain('database exploded');
+    expect(logged).not.toMatch(/very-secret-value|next-auth\.session-token/);
+  });
+});
