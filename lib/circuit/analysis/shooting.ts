@@ -267,7 +267,14 @@ export function shootPeriodicSteadyState(
       }
     }
     if (!accepted) {
-      return { ok: false, reason: `shooting stalled (residual ${res.rel.toExponential(2)})`, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
+      // Fall back to one plain period (always a valid step towards the steady state).
+      pseudoK = 1;
+      s = Float64Array.from(run.endV);
+      const out = integratePeriod(engine, s, lastSolution(run), o.periodS, control, true);
+      periods++;
+      if (!out.ok) return { ok: false, reason: out.reason, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
+      run = out.run;
+      res = relResidual(s, run.endV, floorV);
     }
     history.push(res.rel);
   }

@@ -12,6 +12,7 @@ import { noLoadGuess } from './initial-guess';
 import { solveOperatingPoint } from './operating-point';
 import { integratePeriod, shootPeriodicSteadyState } from './shooting';
 import { TransientEngine, type StepControl } from './transient';
+import { backwardEuler } from '../integration/methods';
 
 export interface SolveOptions {
   /** Also integrate the warm-up transient from power-on. Default false. */
@@ -178,11 +179,17 @@ export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): Solv
       stats: { ...statsBase, solveMs: performance.now() - started },
     };
   }
-  // Measures come from one more period on a finer, error-controlled grid from the converged
-  // state: narrow diode current pulses need more points than the state needs for convergence.
-  const fine: StepControl = { ...control, lteRel: control.lteRel / 20, hMaxS: control.hMaxS / 4 };
-  const check = integratePeriod(engine, shot.state, shot.run.record.solutions[0], periodS, fine, false);
+  // Currents, charges and powers come from one more period from the converged state on a finer
+  // grid with backward Euler: its step current is exactly the step's charge change, so with
+  // KCL at every point the diode and source charges per period are exact sums, and the
+  // capacitors' ∫v·dq telescopes to zero. Node voltages come from a BDF2 period on a finer grid
+  // than shooting needed (ripple of a few parts per thousand of the output needs it).
+  const fine: StepControl = { ...control, lteRel: control.lteRel * 10, hMaxS: control.hMaxS / 4 };
+  const measuring = new TransientEngine(circuit, backwardEuler);
+  const check = integratePeriod(measuring, shot.state, shot.run.record.solutions[0], periodS, fine, false);
   const record = check.ok ? check.run.record : shot.run.record;
+  const fineBdf2 = integratePeriod(engine, shot.state, shot.run.record.solutions[0], periodS, { ...control, lteRel: control.lteRel / 20, hMaxS: control.hMaxS / 4 }, false);
+  const voltageRecord = fineBdf2.ok ? fineBdf2.run.record : shot.run.record;
   if (check.ok) {
     let worst = 0;
     let scale = 1e-6 * vScale;
@@ -190,12 +197,20 @@ export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): Solv
       worst = Math.max(worst, Math.abs(check.run.endV[j] - shot.state[j]));
       scale = Math.max(scale, Math.abs(shot.state[j]));
     }
-    diagnostics.push({ severity: 'info', code: 'period-check', message: `period-to-period change on the finer measuring grid ${(worst / scale).toExponential(2)} (relative)` });
+    diagnostics.push({ severity: 'info', code: 'period-check', message: `period-to-period change on the backward-Euler measuring grid ${(worst / scale).toExponential(2)} (relative)` });
   }
   const points = Math.min(400, Math.max(0, options.waveformPoints ?? 200));
-  const firstPass = measurePeriod(circuit, record, [], 0);
+  const firstPass = measurePeriod(circuit, voltageRecord, [], 0);
   const outputs = options.outputNodes?.map((node) => ({ node, polarity: ((firstPass.nodes[node]?.mean ?? 0) < 0 ? 'negative' : 'positive') as 'positive' | 'negative' })) ?? pickOutputs(firstPass.nodes);
   const m = measurePeriod(circuit, record, outputs.map((o) => o.node), points);
+  const v = measurePeriod(circuit, voltageRecord, outputs.map((o) => o.node), points);
+  m.nodes = v.nodes;
+  for (const [name, part] of Object.entries(v.parts)) {
+    const p = m.parts[name];
+    if (part.kind === 'C' && p?.kind === 'C') Object.assign(p, { dcV: part.dcV, peakV: part.peakV, energyJ: part.energyJ });
+    if (part.kind === 'D' && p?.kind === 'D') p.pivV = part.pivV;
+  }
+  m.energy = v.energy;
   const solveMs = performance.now() - started;
   let warmup: WarmupResult | undefined;
   let warmupMs: number | undefined;
