@@ -143,7 +143,7 @@ export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): Solv
   const vScale = drive.amplitude > 0 ? drive.amplitude : 1;
   const control: StepControl = {
     hMaxS: periodS * (options.maxStepFraction ?? 0.01),
-    hMinS: periodS * 1e-13,
+    hMinS: periodS * 1e-9,
     hInitS: periodS * 1e-4,
     lteRel: options.lteRel ?? 1e-6,
     lteAbsV: 1e-9 * vScale,
@@ -256,7 +256,7 @@ function solveWarmupFrom(
   const out = circuit.nodeOffset.get(outputNode)!;
   const control: StepControl = {
     hMaxS: periodS / 40,
-    hMinS: periodS * 1e-13,
+    hMinS: periodS * 1e-9,
     hInitS: periodS * 1e-4,
     lteRel: 2e-5,
     lteAbsV: 1e-8 * vScale,

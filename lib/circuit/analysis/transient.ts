@@ -138,6 +138,7 @@ export class TransientEngine {
     let gridIndex = 0;
     if (this.hNext <= 0) this.hNext = control.hInitS;
     let firstAfterRestart = true;
+    let justRejected = false;
     while (this.timeS < tEnd - eps) {
       if (control.deadlineMs !== undefined && performance.now() > control.deadlineMs) {
         return { ok: false, reason: 'time budget exhausted', timeS: this.timeS, steps: this.steps };
@@ -154,8 +155,10 @@ export class TransientEngine {
         h = Math.min(target - this.timeS, this.hNext > 0 && this.hNext < target - this.timeS ? this.hNext : Infinity);
       } else {
         h = Math.min(this.hNext, control.hMaxS, target - this.timeS);
-        // Avoid a sliver of a step just before the target.
-        if (target - this.timeS - h < 0.2 * h) h = target - this.timeS;
+        // Avoid a sliver of a step just before the target: stretch to it, or, right after a
+        // rejection (when stretching would repeat the rejected step), split what is left.
+        const rest = target - this.timeS;
+        if (rest - h < 0.2 * h) h = justRejected && rest > h ? rest / 2 : rest;
       }
       const order = store.usableOrder();
       store.beginStep(h, order);
@@ -171,6 +174,7 @@ export class TransientEngine {
       if (!res.ok) {
         for (const d of circuit.devices) d.rollback?.();
         this.rejected++;
+        justRejected = true;
         this.hNext = h / 8;
         if (this.hNext < control.hMinS) {
           return { ok: false, reason: `time step too small at t = ${this.timeS.toExponential(4)} s (Newton: ${res.reason})`, timeS: this.timeS, steps: this.steps };
@@ -184,10 +188,12 @@ export class TransientEngine {
         if (ratio > 1 && h > control.hMinS * 2) {
           for (const d of circuit.devices) d.rollback?.();
           this.rejected++;
+          justRejected = true;
           this.hNext = Math.max(control.hMinS, h * Math.max(0.2, 0.9 * Math.pow(ratio, -1 / (order + 1))));
           continue;
         }
       }
+      justRejected = false;
       store.accept(this.timeS + h);
       for (const d of circuit.devices) d.accept?.();
       this.xPrev.set(this.x);
@@ -202,6 +208,9 @@ export class TransientEngine {
         const grow = ratio > 0 ? 0.9 * Math.pow(ratio, -1 / (order + 1)) : 2;
         this.hNext = h * Math.min(firstAfterRestart ? 4 : 2, Math.max(0.3, grow));
         if (res.iterations > 12) this.hNext = Math.min(this.hNext, h / 2);
+        // Steps near hMin carry charge differences at round-off level, where the LTE estimate
+        // is noise; never let the controller walk the step below a few hMin.
+        this.hNext = Math.max(this.hNext, 4 * control.hMinS);
       }
       firstAfterRestart = false;
       onAccept?.(this.timeS, h, this.x);
