@@ -14,6 +14,7 @@ import {
   recognizeTopology,
   type Diagnostic,
   type Netlist,
+  type ParseIssue,
   type TopologyReport,
 } from '../lib/circuit';
 import { solveNetlist } from '../lib/circuit/analysis/solve';
@@ -48,6 +49,8 @@ const t0 = performance.now();
 let netlist: Netlist;
 let topology: TopologyReport;
 const diagnostics: Diagnostic[] = [];
+/** Netlist cards the parser kept but does not act on (e.g. `.tran`), by line. */
+const parseWarnings: ParseIssue[] = [];
 const looksJson = /\.json$/i.test(file) || /^\s*[{[]/.test(text);
 if (looksJson) {
   let raw: unknown;
@@ -75,7 +78,7 @@ if (looksJson) {
   const parsed = parseNetlist(text);
   if (!parsed.ok) fail(3, parsed.errors.map((e) => `${file}:${e.line}: ${e.message}`).join('\n'));
   netlist = parsed.netlist;
-  for (const w of parsed.warnings) diagnostics.push({ code: 'ignored-card', severity: 'info', message: `line ${w.line}: ${w.message}` } as Diagnostic);
+  parseWarnings.push(...parsed.warnings);
   topology = recognizeTopology(netlist);
   diagnostics.push(...topology.diagnostics);
 }
@@ -92,6 +95,7 @@ const base = {
   stages: topology.ladders.map((l) => l.stages),
   outputs: topology.outputs,
   estimate,
+  parseWarnings,
 };
 
 if (flags.has('--estimate-only')) {
