@@ -13,3 +13,7 @@ export * from './estimates/bipolar';
 export * from './estimates/stresses';
 export * from './estimates/estimate';
 export * from './measures/safety';
+export * from './netlist/generate';
+export * from './analysis/solve';
+export { buildCircuit, type Circuit, type SolverDiagnostic } from './mna/circuit';
+export type { NodeMeasure, PartMeasure, CapacitorMeasure, DiodeMeasure, ResistorMeasure, SourceMeasure, PeriodMeasures } from './measures/period-measures';
