@@ -1,89 +1,133 @@
 /**
- * `npm run solve -- FILE [--estimate-only] [--no-warmup]`: solves a SPICE netlist or a design
- * JSON (canvas document) and prints one JSON object (schema in /work/notes/cli-schema.md).
- * Bad input: a message on stderr and exit code 1 (2 when the solve itself fails).
+ * `npm run solve -- FILE [--estimate-only] [--no-warmup] [--waveforms]`
+ *
+ * FILE is a SPICE-subset netlist or a design JSON (a canvas document). Prints ONE JSON object on
+ * stdout (schema in the README, "Command line"); problems with the file go to stderr with a
+ * non-zero exit: 2 usage, 3 unreadable or invalid file, 4 the circuit cannot be solved.
  */
-import { readFileSync } from 'node:fs';
-import { designDocumentSchema } from '../lib/circuit/document/schema';
-import { compileDocument } from '../lib/circuit/compile/compile';
-import { recognizeTopology, type TopologyReport } from '../lib/circuit/compile/topology';
-import { estimateFromNetlist, type EstimateTopologyView } from '../lib/circuit/estimates/estimate';
-import { parseNetlist } from '../lib/circuit/netlist/parse';
-import type { Netlist } from '../lib/circuit/netlist/types';
+import fs from 'node:fs';
+import {
+  compileDocument,
+  designDocumentSchema,
+  estimateFromNetlist,
+  parseNetlist,
+  recognizeTopology,
+  type Diagnostic,
+  type Netlist,
+  type ParseIssue,
+  type TopologyReport,
+} from '../lib/circuit';
 import { solveNetlist } from '../lib/circuit/analysis/solve';
 
-function fail(message: string, code = 1): never {
+/** Largest input file read (bytes); matches the parser's own limit. */
+const MAX_FILE_BYTES = 2_000_000;
+
+function fail(code: number, message: string): never {
   process.stderr.write(`solve: ${message}\n`);
   process.exit(code);
 }
 
 const args = process.argv.slice(2);
-const file = args.find((a) => !a.startsWith('--'));
-const estimateOnly = args.includes('--estimate-only');
-const warmup = !args.includes('--no-warmup');
-if (!file) fail('usage: npm run solve -- FILE [--estimate-only] [--no-warmup]');
+const flags = new Set(args.filter((a) => a.startsWith('--')));
+const files = args.filter((a) => !a.startsWith('--'));
+const known = new Set(['--estimate-only', '--no-warmup', '--waveforms']);
+for (const f of flags) if (!known.has(f)) fail(2, `unknown option ${f} (known: ${[...known].join(', ')})`);
+if (files.length !== 1) fail(2, 'usage: npm run solve -- FILE [--estimate-only] [--no-warmup] [--waveforms]');
+const file = files[0];
 
 let text: string;
 try {
-  text = readFileSync(file, 'utf8');
+  const stat = fs.statSync(file);
+  if (!stat.isFile()) fail(3, `${file} is not a file`);
+  if (stat.size > MAX_FILE_BYTES) fail(3, `${file} is ${stat.size} bytes; the limit is ${MAX_FILE_BYTES}`);
+  text = fs.readFileSync(file, 'utf8');
 } catch (e) {
-  fail(`cannot read ${file}: ${(e as Error).message}`);
+  fail(3, `cannot read ${file}: ${e instanceof Error ? e.message : String(e)}`);
 }
 
+const t0 = performance.now();
 let netlist: Netlist;
 let topology: TopologyReport;
-const diagnostics: unknown[] = [];
-const trimmed = text.trimStart();
-if (trimmed.startsWith('{')) {
-  let json: unknown;
+const diagnostics: Diagnostic[] = [];
+/** Netlist cards the parser kept but does not act on (e.g. `.tran`), by line. */
+const parseWarnings: ParseIssue[] = [];
+const looksJson = /\.json$/i.test(file) || /^\s*[{[]/.test(text);
+if (looksJson) {
+  let raw: unknown;
   try {
-    json = JSON.parse(text);
+    raw = JSON.parse(text);
   } catch (e) {
-    fail(`${file}: not valid JSON (${(e as Error).message})`);
+    fail(3, `${file}: not valid JSON (${e instanceof Error ? e.message : String(e)})`);
   }
-  const doc = designDocumentSchema.safeParse(json);
-  if (!doc.success) fail(`${file}: not a valid design document: ${doc.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
+  // A saved design export may wrap the document; accept the bare document or { document }.
+  const candidate = raw && typeof raw === 'object' && 'document' in raw ? (raw as { document: unknown }).document : raw;
+  const doc = designDocumentSchema.safeParse(candidate);
+  if (!doc.success) {
+    const issue = doc.error.issues[0];
+    fail(3, `${file}: not a Kilorung design document: ${issue.path.join('.') || '(root)'}: ${issue.message}`);
+  }
   const compiled = compileDocument(doc.data);
-  if (!compiled.ok) fail(`${file}: ${compiled.reason}\n${JSON.stringify(compiled.diagnostics, null, 2)}`);
+  if (!compiled.ok) {
+    const lines = compiled.diagnostics.filter((d) => d.severity === 'error').map((d) => `  ${d.code}: ${d.message}`);
+    fail(3, `${file}: the design does not compile: ${compiled.reason}\n${lines.join('\n')}`);
+  }
   netlist = compiled.netlist;
   topology = compiled.topology;
   diagnostics.push(...compiled.diagnostics);
 } else {
   const parsed = parseNetlist(text);
-  if (!parsed.ok) fail(`${file}: ${parsed.errors.map((e) => `line ${e.line}: ${e.message}`).join('; ')}`);
+  if (!parsed.ok) fail(3, parsed.errors.map((e) => `${file}:${e.line}: ${e.message}`).join('\n'));
   netlist = parsed.netlist;
-  diagnostics.push(...parsed.warnings.map((w) => ({ severity: 'warning', ...w })));
+  parseWarnings.push(...parsed.warnings);
   topology = recognizeTopology(netlist);
+  diagnostics.push(...topology.diagnostics);
 }
+const compileMs = performance.now() - t0;
 
-const estimate = estimateFromNetlist(netlist, topology as unknown as EstimateTopologyView);
-const stages = topology.ladders.map((l) => l.stages);
-const base = { topology: topology.kind, stages, outputs: topology.outputs, estimate };
-if (estimateOnly) {
-  process.stdout.write(`${JSON.stringify({ ...base, diagnostics }, null, 2)}\n`);
+const t1 = performance.now();
+const estimate = estimateFromNetlist(netlist, topology);
+const estimateMs = performance.now() - t1;
+
+const base = {
+  file,
+  title: netlist.title,
+  topology: topology.kind,
+  stages: topology.ladders.map((l) => l.stages),
+  outputs: topology.outputs,
+  estimate,
+  parseWarnings,
+};
+
+if (flags.has('--estimate-only')) {
+  process.stdout.write(`${JSON.stringify({ ...base, diagnostics, stats: { compileMs, estimateMs } }, null, 2)}\n`);
   process.exit(0);
 }
-const result = solveNetlist(netlist, { warmup, waveformPoints: 0, outputNodes: topology.outputs.length > 0 ? topology.outputs.map((o) => o.node) : undefined });
+
+const result = solveNetlist(netlist, {
+  warmup: !flags.has('--no-warmup'),
+  outputNodes: topology.outputs.length ? topology.outputs.map((o) => o.node) : undefined,
+  waveformPoints: flags.has('--waveforms') ? 200 : 0,
+});
 if (!result.ok) {
-  process.stdout.write(`${JSON.stringify({ ...base, error: result.reason, diagnostics: [...diagnostics, ...result.diagnostics] }, null, 2)}\n`);
-  fail(result.reason, 2);
+  process.stdout.write(`${JSON.stringify({ ...base, ok: false, reason: result.reason, diagnostics: [...diagnostics, ...result.diagnostics], stats: result.stats ?? {} }, null, 2)}\n`);
+  fail(4, `cannot solve: ${result.reason}`);
 }
-const nodes = Object.fromEntries(Object.entries(result.nodes).filter(([name]) => !name.includes('#')).map(([name, m]) => [name, { mean: m.mean, min: m.min, max: m.max, ripple: m.ripple }]));
-process.stdout.write(
-  `${JSON.stringify(
-    {
-      ...base,
-      outputs: base.outputs.length > 0 ? base.outputs : result.outputs,
-      nodes,
-      parts: result.parts,
-      power: result.power,
-      energy: result.energy,
-      warmup: result.warmup ? { t90: result.warmup.t90, t99: result.warmup.t99, cycles90: result.warmup.cycles90, cycles99: result.warmup.cycles99 } : null,
-      checks: result.checks,
-      diagnostics: [...diagnostics, ...result.diagnostics],
-      stats: result.stats,
-    },
-    null,
-    2,
-  )}\n`,
+
+const nodes = Object.fromEntries(
+  Object.entries(result.nodes).map(([name, m]) => [name, { mean: m.mean, min: m.min, max: m.max, ripple: m.ripple, ...(m.waveform ? { waveform: m.waveform } : {}) }]),
 );
+const output = {
+  ...base,
+  ok: true,
+  outputs: result.outputs.map((o) => ({ ...o, mean: result.nodes[o.node]?.mean ?? null, ripple: result.nodes[o.node]?.ripple ?? null })),
+  frequencyHz: result.frequencyHz,
+  nodes,
+  parts: result.parts,
+  power: result.power,
+  energy: result.energy,
+  warmup: result.warmup ? { t90: result.warmup.t90, t99: result.warmup.t99, cycles90: result.warmup.cycles90, cycles99: result.warmup.cycles99 } : null,
+  checks: result.checks,
+  diagnostics: [...diagnostics, ...result.diagnostics],
+  stats: { ...result.stats, compileMs, estimateMs },
+};
+process.stdout.write(`${JSON.stringify(output, null, 2)}\n`);
