@@ -2,29 +2,16 @@
  * Display formatting at the UI edge: SI numbers in, engineering-prefixed text out
  * (e.g. 4.7e-9 F → "4.7 nF"). Nothing here is used for computation.
  */
+import { formatEngineering } from '@/lib/circuit/netlist/units';
 
-const PREFIXES: [number, string][] = [
-  [1e12, 'T'],
-  [1e9, 'G'],
-  [1e6, 'M'],
-  [1e3, 'k'],
-  [1, ''],
-  [1e-3, 'm'],
-  [1e-6, 'µ'],
-  [1e-9, 'n'],
-  [1e-12, 'p'],
-  [1e-15, 'f'],
-];
-
-/** Formats `value` (in the SI base unit `unit`) with an engineering prefix and 3 significant digits. */
+/**
+ * Formats `value` (in the SI base unit `unit`) with an engineering prefix and 3 significant
+ * digits, trailing zeros dropped ("4.7 nF"). The prefix choice is the engine's own
+ * `formatEngineering`, so the UI and the engine's reports never disagree.
+ */
 export function formatSi(value: number, unit: string): string {
   if (!Number.isFinite(value)) return `— ${unit}`;
-  if (value === 0) return `0 ${unit}`;
-  const abs = Math.abs(value);
-  const entry = PREFIXES.find(([scale]) => abs >= scale * 0.9995) ?? PREFIXES[PREFIXES.length - 1];
-  const scaled = value / entry[0];
-  const text = Number(scaled.toPrecision(3)).toString();
-  return `${text} ${entry[1]}${unit}`;
+  return formatEngineering(value, unit, 3).replace(/^(-?\d+)(\.\d*?)0+(?=\s)/, (_m, int: string, frac: string) => int + (frac === '.' ? '' : frac));
 }
 
 const dateTime = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' });
