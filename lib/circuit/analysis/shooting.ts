@@ -59,7 +59,8 @@ export function integratePeriod(
   let qd1 = new Float64Array(withSensitivity ? m * m : 0);
   let qd2 = new Float64Array(withSensitivity ? m * m : 0);
   let vd = new Float64Array(withSensitivity ? m * m : 0);
-  const col = new Float64Array(size + 1);
+  // Sensitivity right-hand sides, (size + 1) rows × m columns; the last row is ground.
+  const rhs = new Float64Array(withSensitivity ? (size + 1) * m : 0);
   const { pos, neg } = store;
   if (withSensitivity) {
     for (let j = 0; j < m; j++) qd1[j * m + j] = engine.slotCharge(j, s0[j]).c;
@@ -72,20 +73,25 @@ export function integratePeriod(
     const a1 = store.alpha[1];
     const a2 = store.alpha[2];
     const next = qd2;
+    // Right-hand side of every sensitivity column at once, row-major by unknown (see
+    // BandMatrix.solveMany): column s gets −(α1·q'_k + α2·q'_{k−1}) at each slot's terminals.
+    rhs.fill(0);
     for (let s = 0; s < m; s++) {
-      col.fill(0);
       const base = s * m;
       for (let j = 0; j < m; j++) {
         const v = a1 * qd1[base + j] + a2 * qd2[base + j];
         if (v === 0) continue;
-        col[pos[j]] -= v;
-        col[neg[j]] += v;
+        rhs[pos[j] * m + s] -= v;
+        rhs[neg[j] * m + s] += v;
       }
-      col[size] = 0;
-      circuit.matrix.solve(col);
-      col[size] = 0;
+    }
+    rhs.fill(0, size * m);
+    circuit.matrix.solveMany(rhs, m);
+    rhs.fill(0, size * m);
+    for (let s = 0; s < m; s++) {
+      const base = s * m;
       for (let j = 0; j < m; j++) {
-        const dv = col[pos[j]] - col[neg[j]];
+        const dv = rhs[pos[j] * m + s] - rhs[neg[j] * m + s];
         vd[base + j] = dv;
         next[base + j] = store.cNow[j] * dv;
       }
