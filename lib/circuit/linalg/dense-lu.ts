@@ -60,6 +60,8 @@ export class DenseLu {
     const n = this.size;
     const a = this.lu;
     const x = Float64Array.from(b);
+    // The factorisation swaps whole rows (multipliers included, as LAPACK's xGETRF), so the
+    // stored L belongs to the fully permuted matrix: apply every interchange first (xGETRS).
     for (let k = 0; k < n; k++) {
       const p = this.piv[k];
       if (p !== k) {
@@ -67,7 +69,11 @@ export class DenseLu {
         x[k] = x[p];
         x[p] = t;
       }
-      for (let r = k + 1; r < n; r++) x[r] -= a[r * n + k] * x[k];
+    }
+    for (let k = 0; k < n; k++) {
+      const xk = x[k];
+      if (xk === 0) continue;
+      for (let r = k + 1; r < n; r++) x[r] -= a[r * n + k] * xk;
     }
     for (let k = n - 1; k >= 0; k--) {
       let s = x[k];

@@ -82,6 +82,30 @@ describe('dense LU', () => {
     // Golub & Van Loan style hand check: x = (1, 1, 2).
     expect(Array.from(x).map((v) => Math.round(v * 1e12) / 1e12)).toEqual([1, 1, 2]);
   });
+
+  for (const n of [5, 30, 80]) {
+    it(`n=${n} with row interchanges at many steps: ‖Ax−b‖ small`, () => {
+      // A weak diagonal makes partial pivoting swap rows after multipliers exist, which the
+      // solve must apply before the forward substitution (LAPACK xGETRF/xGETRS).
+      const r = rng(n * 7 + 3);
+      const a = new Float64Array(n * n);
+      for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) a[i * n + j] = (i === j ? 1e-3 : 1) * r();
+      const b = Array.from({ length: n }, () => r());
+      const f = DenseLu.factor(a, n);
+      expect(f.ok).toBe(true);
+      if (!f.ok) return;
+      const x = f.lu.solve(b);
+      let worst = 0;
+      let scale = 0;
+      for (let i = 0; i < n; i++) {
+        let s = -b[i];
+        for (let j = 0; j < n; j++) s += a[i * n + j] * x[j];
+        worst = Math.max(worst, Math.abs(s));
+        scale = Math.max(scale, Math.abs(x[i]));
+      }
+      expect(worst / Math.max(1, scale)).toBeLessThan(1e-10);
+    });
+  }
 });
 
 describe('reverse Cuthill–McKee', () => {
