@@ -5,8 +5,7 @@
  * Kuffel 2000 §2.2.2 (mem)):
  *
  * 1. the sinusoidal (phasor) solution of the linear part with every diode junction open,
- *    giving each node's AC swing (modified nodal analysis with complex admittances, written as
- *    a real system of twice the size in an interleaved, still banded, ordering);
+ *    giving each node's AC swing (`phasorSolution`);
  * 2. each diode at no load just touches conduction at its crest, so its cathode sits
  *    |V_anode − V_cathode| (phasor difference) above its anode; these offsets are propagated
  *    from ground along diodes and resistors.
@@ -21,7 +20,19 @@ export interface InitialGuess {
   branchV: Float64Array;
 }
 
-export function noLoadGuess(circuit: Circuit, frequencyHz: number): InitialGuess | null {
+/** AC phasor of every unknown (drive at one frequency), diodes open; ground reads 0. */
+export interface PhasorSolution {
+  re: (offset: number) => number;
+  im: (offset: number) => number;
+}
+
+/**
+ * Sinusoidal steady state of the linear part at `frequencyHz` with every diode junction open
+ * (a conductance of 1e-8·ωC_min keeps nodes fed only through diodes defined), by modified
+ * nodal analysis with complex admittances written as a real system of twice the size in an
+ * interleaved, still banded, ordering. A phasor V stands for v(t) = Im(V·e^{jωt}).
+ */
+export function phasorSolution(circuit: Circuit, frequencyHz: number): PhasorSolution | null {
   const n = circuit.size;
   const omega = 2 * Math.PI * frequencyHz;
   const band = new BandMatrix(2 * n, 2 * circuit.band.lower + 1, 2 * circuit.band.upper + 1);
@@ -64,8 +75,14 @@ export function noLoadGuess(circuit: Circuit, frequencyHz: number): InitialGuess
   }
   if (!band.factor().ok) return null;
   band.solve(rhs);
-  const re = (i: number) => (i >= n ? 0 : rhs[2 * i]);
-  const im = (i: number) => (i >= n ? 0 : rhs[2 * i + 1]);
+  return { re: (i) => (i >= n ? 0 : rhs[2 * i]), im: (i) => (i >= n ? 0 : rhs[2 * i + 1]) };
+}
+
+export function noLoadGuess(circuit: Circuit, frequencyHz: number): InitialGuess | null {
+  const n = circuit.size;
+  const phasor = phasorSolution(circuit, frequencyHz);
+  if (!phasor) return null;
+  const { re, im } = phasor;
 
   // DC offsets propagated from ground.
   const dc = new Float64Array(n + 1);
