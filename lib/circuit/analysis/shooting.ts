@@ -194,36 +194,51 @@ export function shootPeriodicSteadyState(
   const history: number[] = [];
   let control: StepControl = o.control;
   let s = Float64Array.from(s0);
-  // Plain periods first, until every diode conducts within the period. From an ideal no-load
-  // guess the loaded ladder's diodes start conducting one stage per period; a diode that does
-  // not conduct leaves the period map with a unit eigenvalue (M − I singular) and Newton's step
-  // is meaningless along it.
-  let first = integratePeriod(engine, s, guess, o.periodS, control, false);
-  periods++;
-  for (let k = 0; first.ok && k < o.warmupPeriods && !allDiodesConduct(circuit, first.run.record); k++) {
-    s = Float64Array.from(first.run.endV);
-    first = integratePeriod(engine, s, lastSolution(first.run), o.periodS, control, false);
+  let seed = guess;
+  if (o.warmupPeriods > 0) {
+    // Plain periods first, until every diode conducts within the period. From an ideal no-load
+    // guess the loaded ladder's diodes start conducting one stage per period; a diode that does
+    // not conduct leaves the period map with a unit eigenvalue (M − I singular) and Newton's
+    // step is meaningless along it.
+    let plain = integratePeriod(engine, s, guess, o.periodS, control, false);
     periods++;
+    for (let k = 0; plain.ok && k < o.warmupPeriods && !allDiodesConduct(circuit, plain.run.record); k++) {
+      s = Float64Array.from(plain.run.endV);
+      plain = integratePeriod(engine, s, lastSolution(plain.run), o.periodS, control, false);
+      periods++;
+    }
+    if (!plain.ok) return { ok: false, reason: plain.reason, iterations: 0, residual: Infinity, periodsIntegrated: periods, history };
+    seed = plain.run.record.solutions[0];
   }
-  if (first.ok) first = integratePeriod(engine, s, first.run.record.solutions[0], o.periodS, control, true);
+  const first = integratePeriod(engine, s, seed, o.periodS, control, true);
   periods++;
   if (!first.ok) return { ok: false, reason: first.reason, iterations: 0, residual: Infinity, periodsIntegrated: periods, history };
   let run = first.run;
   let res = relResidual(s, run.endV, floorV);
   let pseudoK = o.initialPeriods;
+  // Monodromy of the last period integrated with sensitivities, and whether it belongs to s.
+  let mono = run.monodromy!;
+  let fresh = true;
   history.push(res.rel);
+  const refresh = (): string | null => {
+    const again = integratePeriod(engine, s, run.record.solutions[0], o.periodS, control, true);
+    periods++;
+    if (!again.ok) return again.reason;
+    run = again.run;
+    mono = run.monodromy!;
+    fresh = true;
+    res = relResidual(s, run.endV, floorV);
+    return null;
+  };
   for (let it = 1; it <= o.maxIterations; it++) {
     if (res.rel <= o.tolerance) {
       return { ok: true, state: s, run, iterations: it - 1, residual: res.rel, periodsIntegrated: periods, history };
     }
     if (!control.grid && res.rel < o.freezeBelow) {
-      control = { ...o.control, grid: run.record.timesS.subarray(1) };
       // Re-evaluate on the frozen grid so that residual and monodromy belong to the same map.
-      const again = integratePeriod(engine, s, run.record.solutions[0], o.periodS, control, true);
-      periods++;
-      if (!again.ok) return { ok: false, reason: again.reason, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
-      run = again.run;
-      res = relResidual(s, run.endV, floorV);
+      control = { ...o.control, grid: run.record.timesS.subarray(1) };
+      const failed = refresh();
+      if (failed) return { ok: false, reason: failed, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
       history.push(res.rel);
       if (res.rel <= o.tolerance) continue;
     }
@@ -232,7 +247,9 @@ export function shootPeriodicSteadyState(
     // ((1 + 1/K)·I − M)·Δ = φ(s) − s. Small K is a damped plain-period step and keeps the
     // system regular where M has unit eigenvalues (diodes that do not conduct yet); K → ∞ is
     // Newton's step and gives quadratic convergence at the end.
-    const mono = run.monodromy!;
+    // In the Newton regime the monodromy is kept across steps while they contract well (the
+    // chord method, Kelley, Iterative Methods for Linear and Nonlinear Equations, SIAM 1995,
+    // §5.4): a trial period then needs no sensitivities, which cost about as much as the period.
     let accepted = false;
     for (let tries = 0; tries < 8 && !accepted; tries++) {
       const a = new Float64Array(m * m);
@@ -253,7 +270,8 @@ export function shootPeriodicSteadyState(
       const lambda = Math.min(1, (0.25 * o.control.vScaleV) / (big || 1));
       const trial = new Float64Array(m);
       for (let j = 0; j < m; j++) trial[j] = s[j] + lambda * delta[j];
-      const out = integratePeriod(engine, trial, lastSolution(run), o.periodS, control, true);
+      const chord = pseudoK >= 1e3;
+      const out = integratePeriod(engine, trial, lastSolution(run), o.periodS, control, !chord);
       periods++;
       if (!out.ok) {
         pseudoK = Math.max(1, pseudoK / 8);
@@ -264,10 +282,26 @@ export function shootPeriodicSteadyState(
         // Switched evolution relaxation: grow K as the residual falls.
         const gain = res.norm / Math.max(r2.norm, 1e-300);
         pseudoK = Math.min(1e15, pseudoK * Math.min(100, Math.max(0.5, gain)) * (r2.norm < res.norm ? 2 : 1));
+        const contracted = r2.norm <= 0.2 * res.norm;
         s = trial;
         run = out.run;
         res = r2;
         accepted = true;
+        if (!chord) {
+          mono = run.monodromy!;
+          fresh = true;
+        } else {
+          fresh = false;
+          // A chord step that contracted poorly: the kept monodromy is too far off; refresh it.
+          if (!contracted && r2.rel > o.tolerance) {
+            const failed = refresh();
+            if (failed) return { ok: false, reason: failed, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
+          }
+        }
+      } else if (chord && !fresh) {
+        // Retry from the same state with a monodromy that belongs to it.
+        const failed = refresh();
+        if (failed) return { ok: false, reason: failed, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
       } else {
         pseudoK = Math.max(1, pseudoK / 8);
       }
@@ -280,6 +314,8 @@ export function shootPeriodicSteadyState(
       periods++;
       if (!out.ok) return { ok: false, reason: out.reason, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
       run = out.run;
+      mono = run.monodromy!;
+      fresh = true;
       res = relResidual(s, run.endV, floorV);
     }
     history.push(res.rel);

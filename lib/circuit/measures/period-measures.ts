@@ -172,6 +172,55 @@ export function capacitanceSeenFrom(circuit: Circuit, nodes: string[]): Record<s
   return out;
 }
 
+/** Voltage measures of one period: every node, capacitor voltages and energies, diode PIV. */
+export interface VoltageMeasures {
+  nodes: Record<string, NodeMeasure>;
+  capacitors: Record<string, { dcV: number; peakV: number; energyJ: number }>;
+  /** Peak inverse voltage of every diode (V, ≥ 0). */
+  pivV: Record<string, number>;
+  /** Energy in all capacitors at their mean voltage (J). */
+  totalJ: number;
+}
+
+/**
+ * Node and part voltages of a period record, without the current and power bookkeeping (used
+ * on the shooting method's own converged period, whose BDF2 points carry the voltages).
+ */
+export function measureVoltages(circuit: Circuit, record: PeriodRecord, waveformPoints: number): VoltageMeasures {
+  const t = record.timesS;
+  const X = record.solutions;
+  const nodes: Record<string, NodeMeasure> = {};
+  for (const name of circuit.nodeNames) {
+    const o = circuit.nodeOffset.get(name)!;
+    const a = average(t, (k) => X[k][o]);
+    nodes[name] = { mean: a.mean, min: a.min, max: a.max, ripple: a.max - a.min };
+    if (waveformPoints > 1) nodes[name].waveform = downsample(t, (k) => X[k][o], waveformPoints);
+  }
+  const capacitors: VoltageMeasures['capacitors'] = {};
+  let totalJ = 0;
+  for (const c of circuit.capacitors) {
+    const v = average(t, (k) => X[k][c.ia] - X[k][c.ib]);
+    const energyJ = 0.5 * c.capacitanceF * v.mean * v.mean;
+    totalJ += energyJ;
+    capacitors[c.name] = { dcV: v.mean, peakV: Math.max(Math.abs(v.min), Math.abs(v.max)), energyJ };
+  }
+  const pivV: Record<string, number> = {};
+  for (const d of circuit.diodes) pivV[d.name] = Math.max(0, average(t, (k) => X[k][d.ik] - X[k][d.ia]).max);
+  return { nodes, capacitors, pivV, totalJ };
+}
+
+/** Charge and energy of the capacitor network seen from each output at its mean voltage. */
+export function outputEnergy(circuit: Circuit, nodes: Record<string, NodeMeasure>, outputs: string[]): PeriodMeasures['energy']['outputs'] {
+  const seen = capacitanceSeenFrom(circuit, outputs);
+  const energyOut: PeriodMeasures['energy']['outputs'] = {};
+  for (const o of outputs) {
+    const c = seen[o];
+    const v = nodes[o]?.mean ?? 0;
+    if (c !== undefined) energyOut[o] = { capacitanceF: c, chargeC: c * Math.abs(v), energyJ: 0.5 * c * v * v };
+  }
+  return energyOut;
+}
+
 export function measurePeriod(circuit: Circuit, record: PeriodRecord, outputs: string[], waveformPoints: number): PeriodMeasures {
   const t = record.timesS;
   const X = record.solutions;
@@ -249,13 +298,7 @@ export function measurePeriod(circuit: Circuit, record: PeriodRecord, outputs: s
     for (const s of circuit.currentSources) flow(s.ip, s.in, s.value(t[k]));
     for (const name of circuit.nodeNames) kcl = Math.max(kcl, Math.abs(sum[circuit.nodeOffset.get(name)!]));
   }
-  const seen = capacitanceSeenFrom(circuit, outputs);
-  const energyOut: PeriodMeasures['energy']['outputs'] = {};
-  for (const o of outputs) {
-    const c = seen[o];
-    const v = nodes[o]?.mean ?? 0;
-    if (c !== undefined) energyOut[o] = { capacitanceF: c, chargeC: c * Math.abs(v), energyJ: 0.5 * c * v * v };
-  }
+  const energyOut = outputEnergy(circuit, nodes, outputs);
   return {
     nodes,
     parts,

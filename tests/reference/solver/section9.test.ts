@@ -26,10 +26,12 @@ describe('half-wave ladder, equal C, sine (REFERENCES §9 table, sim)', () => {
       expect(rel(got.max, max), `max drop ${got.max}`).toBeLessThan(0.02);
       expect(rel(got.mean, mean), `mean drop ${got.mean}`).toBeLessThan(0.02);
       expect(rel(got.rip, rip), `ripple ${got.rip}`).toBeLessThan(0.03);
-      // §1.3 exact crest model (deriv): ripple u·n(n+1)/2 and the simulation sits at or up to
-      // 2 % below the crest model's mean drop u·(2n³/3 + n²/2 + n/3).
+      // §1.3 exact crest model (deriv): ripple u·n(n+1)/2 and the simulation sits up to 2 %
+      // below the crest model's mean drop u·(2n³/3 + n²/2 + n/3), or just above it at n = 1,
+      // where the diodes' forward drop (a few mV here) is not small against u: §9's own value
+      // for n = 1 is 1.509u against the crest model's 1.5u.
       const crestMean = (2 * n ** 3) / 3 + n ** 2 / 2 + n / 3;
-      expect(got.mean).toBeLessThanOrEqual(crestMean * 1.002);
+      expect(got.mean).toBeLessThanOrEqual(crestMean * 1.007);
       expect(got.mean).toBeGreaterThan(crestMean * 0.97);
       expect(rel(got.rip, (n * (n + 1)) / 2)).toBeLessThan(0.03);
       // Textbook drop u·(2n³/3 + n²/2 − n/6) ([S1], [S2]) within max(n/2·u, 1 %) of the mean (§1.3).
