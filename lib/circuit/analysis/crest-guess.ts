@@ -45,7 +45,7 @@ const PEAK_TO_MEAN = 10;
  * Crest-model periodic state of `circuit` driven at `frequencyHz`, or null when the model does
  * not apply (no capacitors, a singular system, or an implausible answer).
  */
-export function crestGuess(circuit: Circuit, frequencyHz: number, steps = 128): CrestGuess | null {
+export function crestGuess(circuit: Circuit, frequencyHz: number, steps = Number(process.env.CSTEPS ?? 128)): CrestGuess | null {
   const n = circuit.size;
   const caps = circuit.capacitors;
   const diodes = circuit.diodes;
@@ -108,55 +108,40 @@ export function crestGuess(circuit: Circuit, frequencyHz: number, steps = 128): 
   if (!band.factor().ok) return null;
 
   // Columns: 0 = sources alone, 1…mc = unit voltage on capacitor j at t = 0, mc+1… = unit
-  // impulse of diode d. X is row-major by unknown with `cols` values per row (+ ground row).
+  // impulse of diode d. `x` is row-major by unknown with `cols` values per row (+ ground row);
+  // after the last step it holds the solution at t = T of every column.
   const cols = 1 + mc + nd;
   const x = new Float64Array((n + 1) * cols);
-  const rhs = new Float64Array((n + 1) * cols);
+  const capA = Int32Array.from(caps, (c) => c.ia);
+  const capB = Int32Array.from(caps, (c) => c.ib);
+  const capG = Float64Array.from(caps, (c) => c.capacitanceF / h);
   const capV = new Float64Array(mc * cols);
   for (let j = 0; j < mc; j++) capV[j * cols + 1 + j] = 1;
   // Diode voltage right after its impulse, per column.
   const clampV = new Float64Array(nd * cols);
+  const diodeA = Int32Array.from(diodes, (d) => d.ia);
+  const diodeK = Int32Array.from(diodes, (d) => d.ik);
   for (let k = 1; k <= steps; k++) {
     const t = k * h;
-    rhs.fill(0);
-    for (let j = 0; j < mc; j++) {
-      const c = caps[j];
-      const g = c.capacitanceF / h;
-      const rowA = c.ia * cols;
-      const rowB = c.ib * cols;
-      const base = j * cols;
-      for (let col = 0; col < cols; col++) {
-        const ieq = g * capV[base + col];
-        rhs[rowA + col] += ieq;
-        rhs[rowB + col] -= ieq;
-      }
-    }
-    for (const v of circuit.voltageSources) rhs[v.ibr * cols] += v.value(t);
+    x.fill(0);
+    addHistory(x, capV, capA, capB, capG, cols);
+    for (const v of circuit.voltageSources) x[v.ibr * cols] += v.value(t);
     for (const s of circuit.currentSources) {
       const i = s.value(t);
-      rhs[s.ip * cols] -= i;
-      rhs[s.in * cols] += i;
+      x[s.ip * cols] -= i;
+      x[s.in * cols] += i;
     }
     for (let d = 0; d < nd; d++) {
       if (pulseStep[d] !== k) continue;
       const col = 1 + mc + d;
-      rhs[diodes[d].ia * cols + col] -= 1 / h;
-      rhs[diodes[d].ik * cols + col] += 1 / h;
+      x[diodeA[d] * cols + col] -= 1 / h;
+      x[diodeK[d] * cols + col] += 1 / h;
     }
-    rhs.fill(0, n * cols);
-    band.solveMany(rhs, cols);
-    rhs.fill(0, n * cols);
-    x.set(rhs);
-    for (let j = 0; j < mc; j++) {
-      const c = caps[j];
-      const base = j * cols;
-      for (let col = 0; col < cols; col++) capV[base + col] = x[c.ia * cols + col] - x[c.ib * cols + col];
-    }
-    for (let d = 0; d < nd; d++) {
-      if (pulseStep[d] !== k) continue;
-      const dev = diodes[d];
-      for (let col = 0; col < cols; col++) clampV[d * cols + col] = x[dev.ia * cols + col] - x[dev.ik * cols + col];
-    }
+    x.fill(0, n * cols);
+    band.solveMany(x, cols);
+    x.fill(0, n * cols);
+    branchColumns(x, capV, capA, capB, 0, mc, cols);
+    for (let d = 0; d < nd; d++) if (pulseStep[d] === k) branchColumns(x, clampV, diodeA, diodeK, d, d + 1, cols);
   }
 
   // Linear system in z = [u (mc), Q (active diodes)], refined for the forward drop and the
@@ -265,4 +250,29 @@ export function crestGuess(circuit: Circuit, frequencyHz: number, steps = 128): 
   const branchV = new Float64Array(circuit.slots.length);
   for (let s = 0; s < branchV.length; s++) branchV[s] = sol[store.pos[s]] - sol[store.neg[s]];
   return { x: sol, branchV, pulseChargeC: charge, pulseStep, mean, swing };
+}
+
+/** Adds every capacitor's backward-Euler history current g·v to the right-hand sides of all columns. */
+function addHistory(rhs: Float64Array, capV: Float64Array, a: Int32Array, b: Int32Array, g: Float64Array, cols: number): void {
+  for (let j = 0; j < a.length; j++) {
+    const gj = g[j];
+    const rowA = a[j] * cols;
+    const rowB = b[j] * cols;
+    const base = j * cols;
+    for (let col = 0; col < cols; col++) {
+      const ieq = gj * capV[base + col];
+      rhs[rowA + col] += ieq;
+      rhs[rowB + col] -= ieq;
+    }
+  }
+}
+
+/** out[j·cols + col] = x[a_j·cols + col] − x[b_j·cols + col] for j in [from, to). */
+function branchColumns(x: Float64Array, out: Float64Array, a: Int32Array, b: Int32Array, from: number, to: number, cols: number): void {
+  for (let j = from; j < to; j++) {
+    const rowA = a[j] * cols;
+    const rowB = b[j] * cols;
+    const base = j * cols;
+    for (let col = 0; col < cols; col++) out[base + col] = x[rowA + col] - x[rowB + col];
+  }
 }
