@@ -45,7 +45,7 @@ const PEAK_TO_MEAN = 10;
  * Crest-model periodic state of `circuit` driven at `frequencyHz`, or null when the model does
  * not apply (no capacitors, a singular system, or an implausible answer).
  */
-export function crestGuess(circuit: Circuit, frequencyHz: number, steps = Number(process.env.CSTEPS ?? 128)): CrestGuess | null {
+export function crestGuess(circuit: Circuit, frequencyHz: number, steps = 128): CrestGuess | null {
   const n = circuit.size;
   const caps = circuit.capacitors;
   const diodes = circuit.diodes;
