@@ -132,6 +132,13 @@ export interface ShootingOptions {
   warmupPeriods: number;
   /** Initial pseudo-time step of the continuation, in periods. */
   initialPeriods: number;
+  /**
+   * Start with Newton's step (K = 1e6) instead when the first relative residual is below this
+   * (a close initial state, such as the crest model's on a ladder below its optimum load).
+   */
+  newtonBelow?: number;
+  /** Keep the monodromy across steps (chord method) once the residual is below this. Default 1e-4. */
+  chordBelow?: number;
 }
 
 export type ShootingOutcome =
@@ -215,7 +222,8 @@ export function shootPeriodicSteadyState(
   if (!first.ok) return { ok: false, reason: first.reason, iterations: 0, residual: Infinity, periodsIntegrated: periods, history };
   let run = first.run;
   let res = relResidual(s, run.endV, floorV);
-  let pseudoK = o.initialPeriods;
+  let pseudoK = o.newtonBelow !== undefined && res.rel < o.newtonBelow ? 1e6 : o.initialPeriods;
+  const chordBelow = o.chordBelow ?? 1e-4;
   // Monodromy of the last period integrated with sensitivities, and whether it belongs to s.
   let mono = run.monodromy!;
   let fresh = true;
@@ -270,7 +278,7 @@ export function shootPeriodicSteadyState(
       const lambda = Math.min(1, (0.25 * o.control.vScaleV) / (big || 1));
       const trial = new Float64Array(m);
       for (let j = 0; j < m; j++) trial[j] = s[j] + lambda * delta[j];
-      const chord = pseudoK >= 1e3;
+      const chord = pseudoK >= 1e3 && res.rel < chordBelow;
       const out = integratePeriod(engine, trial, lastSolution(run), o.periodS, control, !chord);
       periods++;
       if (!out.ok) {

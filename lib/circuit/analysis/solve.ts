@@ -189,7 +189,8 @@ export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): Solv
     control,
     freezeBelow: 1e-4,
     warmupPeriods: crest ? 0 : 1,
-    initialPeriods: crest ? 1e6 : 1,
+    initialPeriods: 1,
+    newtonBelow: crest ? 1e-3 : undefined,
   });
   const measureStarted = performance.now();
   const statsBase = {
