@@ -16,10 +16,11 @@
 //   distance d are tied by d ≈ δ·τ. The engine's distance to ngspice's steady state is then at
 //   most |engine − ngspice after M periods| + |δ|·τ, and that sum is what is asserted, per node.
 //   τ comes from REFERENCES §6's warm-up scaling (N90 ≈ 3.4·n², N99 ≈ 7.1·n² half-wave, 1.4·n² and
-//   2.8·n² full-wave, so τ = (N99 − N90)/ln 10), doubled to stay on the safe side, or from the
-//   engine's own warm-up where a source resistance slows settling. M = 4·τ(§6) periods: by then the
+//   2.8·n² full-wave, so τ = (N99 − N90)/ln 10; measured: 25 periods = 1.57·n² at n = 4), or, where
+//   a source resistance slows settling, the larger of that and the same ratio from the engine's
+//   own warm-up; the allowance uses twice it to stay on the safe side. M = 4·τ(§6) periods: by then the
 //   ripple, which carries the charge the capacitors still take each cycle, has settled with the
-//   mean (a ladder started from the engine state and held for only ~1·τ shows ripple off by ~1 %).
+//   mean (at n = 4, held for only 1.6·τ, ngspice's ripple is still 1 % off).
 // The same allowance |δ|·τ is added for the settled references; it is negligible there.
 import { beforeAll, describe, expect, it } from 'vitest';
 import { generateLadder, GENERIC_RECTIFIER, ladderOutputs, type LadderOptions } from '@/lib/circuit/netlist/generate';
