@@ -127,6 +127,7 @@ const output = {
   energy: result.energy,
   warmup: result.warmup ? { t90: result.warmup.t90, t99: result.warmup.t99, cycles90: result.warmup.cycles90, cycles99: result.warmup.cycles99 } : null,
   checks: result.checks,
+  safety: result.safety,
   diagnostics: [...diagnostics, ...result.diagnostics],
   stats: { ...result.stats, compileMs, estimateMs },
 };

@@ -13,6 +13,7 @@ export * from './estimates/bipolar';
 export * from './estimates/stresses';
 export * from './estimates/estimate';
 export * from './measures/safety';
+export * from './measures/safety-summary';
 export * from './netlist/generate';
 export * from './analysis/solve';
 export { buildCircuit, type Circuit, type SolverDiagnostic } from './mna/circuit';

@@ -10,6 +10,7 @@ import { buildCircuit, type Circuit, type SolverDiagnostic } from '../mna/circui
 import { measurePeriod, measureVoltages, outputEnergy, type NodeMeasure, type PartMeasure, type PeriodMeasures } from '../measures/period-measures';
 import { crestGuess, type CrestGuess } from './crest-guess';
 import { noLoadGuess } from './initial-guess';
+import { safetySummary, type SafetySummary } from '../measures/safety-summary';
 import { solveOperatingPoint } from './operating-point';
 import { integratePeriod, shootPeriodicSteadyState } from './shooting';
 import { TransientEngine, type StepControl } from './transient';
@@ -72,6 +73,8 @@ export type SolveResult =
       power: PeriodMeasures['power'];
       energy: PeriodMeasures['energy'];
       checks: PeriodMeasures['checks'];
+      /** Node voltage classes, stack charge and energy, discharge path and time, bleeder, warnings. */
+      safety: SafetySummary;
       warmup?: WarmupResult;
       stats: SolveStats;
       diagnostics: SolverDiagnostic[];
@@ -147,16 +150,21 @@ export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): Solv
       nodes[name] = { mean: v, min: v, max: v, ripple: 0 };
     }
     diagnostics.push({ severity: 'info', code: 'dc-only', message: `no AC source: DC operating point by ${op.method}` });
+    const dcOutputs = options.outputNodes?.map((node) => ({ node, polarity: ((nodes[node]?.mean ?? 0) < 0 ? 'negative' : 'positive') as 'positive' | 'negative' })) ?? pickOutputs(nodes);
+    let totalJ = 0;
+    for (const c of circuit.capacitors) totalJ += 0.5 * c.capacitanceF * (op.x[c.ia] - op.x[c.ib]) ** 2;
+    const dcEnergy = { totalJ, outputs: outputEnergy(circuit, nodes, dcOutputs.map((o) => o.node)) };
     return {
       ok: true,
       periodS: 0,
       frequencyHz: 0,
-      outputs: options.outputNodes?.map((node) => ({ node, polarity: (nodes[node]?.mean ?? 0) < 0 ? 'negative' : 'positive' })) ?? pickOutputs(nodes),
+      outputs: dcOutputs,
       nodes,
       parts: {},
       power: { sourceW: 0, loadW: 0, lossW: 0, efficiency: null },
-      energy: { totalJ: 0, outputs: {} },
+      energy: dcEnergy,
       checks: { kclResidual: 0, chargeBalance: 0 },
+      safety: safetySummary(circuit, nodes, dcEnergy, dcOutputs.map((o) => o.node)),
       stats: { solveMs: performance.now() - started, newtonIterations: op.iterations, shootingIterations: 0, periodsIntegrated: 0, steps: 0, unknowns: circuit.size, bandwidth: circuit.band, residual: 0 },
       diagnostics,
     };
@@ -238,6 +246,7 @@ export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): Solv
     if (part.kind === 'D' && v.pivV[name] !== undefined) part.pivV = v.pivV[name];
   }
   m.energy = { totalJ: v.totalJ, outputs: outputEnergy(circuit, v.nodes, outputNames) };
+  const safety = safetySummary(circuit, m.nodes, m.energy, outputNames);
   const solveMs = performance.now() - started;
   const phaseMs = { guess: shootStarted - guessStarted, shooting: measureStarted - shootStarted, measuring: performance.now() - measureStarted };
   let warmup: WarmupResult | undefined;
@@ -260,6 +269,7 @@ export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): Solv
     power: m.power,
     energy: m.energy,
     checks: m.checks,
+    safety,
     warmup,
     stats: { ...statsBase, newtonIterations: engine.newton.totalIterations, solveMs, steps: shot.run.steps, phaseMs, warmupMs },
     diagnostics,
