@@ -146,6 +146,8 @@ export type ShootingOutcome =
       ok: true;
       state: Float64Array;
       run: PeriodRun;
+      /** Monodromy matrix of the last period integrated with sensitivities (row-major). */
+      monodromy: Float64Array;
       iterations: number;
       residual: number;
       periodsIntegrated: number;
@@ -240,7 +242,7 @@ export function shootPeriodicSteadyState(
   };
   for (let it = 1; it <= o.maxIterations; it++) {
     if (res.rel <= o.tolerance) {
-      return { ok: true, state: s, run, iterations: it - 1, residual: res.rel, periodsIntegrated: periods, history };
+      return { ok: true, state: s, run, monodromy: mono, iterations: it - 1, residual: res.rel, periodsIntegrated: periods, history };
     }
     if (!control.grid && res.rel < o.freezeBelow) {
       // Re-evaluate on the frozen grid so that residual and monodromy belong to the same map.
@@ -328,6 +330,6 @@ export function shootPeriodicSteadyState(
     }
     history.push(res.rel);
   }
-  if (res.rel <= o.tolerance) return { ok: true, state: s, run, iterations: o.maxIterations, residual: res.rel, periodsIntegrated: periods, history };
+  if (res.rel <= o.tolerance) return { ok: true, state: s, run, monodromy: mono, iterations: o.maxIterations, residual: res.rel, periodsIntegrated: periods, history };
   return { ok: false, reason: `shooting did not converge in ${o.maxIterations} iterations (residual ${res.rel.toExponential(2)})`, iterations: o.maxIterations, residual: res.rel, periodsIntegrated: periods, history };
 }

@@ -15,6 +15,7 @@ import { solveOperatingPoint } from './operating-point';
 import { integratePeriod, shootPeriodicSteadyState } from './shooting';
 import { TransientEngine, type StepControl } from './transient';
 import { backwardEuler } from '../integration/methods';
+import { DenseLu } from '../linalg/dense-lu';
 
 export interface SolveOptions {
   /** Also integrate the warm-up transient from power-on. Default false. */
@@ -217,24 +218,50 @@ export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): Solv
       stats: { ...statsBase, solveMs: performance.now() - started },
     };
   }
-  // Currents, charges and powers come from one more period from the converged state on a finer
-  // grid with backward Euler: its step current is exactly the step's charge change, so with
+  // Currents, charges and powers come from one more period from the converged state with
+  // backward Euler: its step current is exactly the step's charge change, so with
   // KCL at every point the diode and source charges per period are exact sums, and the
   // capacitors' ∫v·dq telescopes to zero. Node and part voltages come from the converged BDF2
   // period itself (second order, on the step grid its error control chose).
-  const fine: StepControl = { ...control, hMaxS: control.hMaxS / 4 };
+  // Backward Euler's own periodic state differs from BDF2's by the methods' error; one chord
+  // step with the shooting's monodromy moves the start onto it, so that the measuring period is
+  // periodic too and its energy balance closes (stored energy returns to where it started).
+  // Its own error control resolves the conduction pulses: peak, RMS and mean currents move by
+  // < 0.3 % between hMax = T/100 and T/1600 on the 4- and 20-stage benchmark ladders.
+  const fine: StepControl = { ...control };
   const measuring = new TransientEngine(circuit, backwardEuler);
-  const check = integratePeriod(measuring, shot.state, shot.run.record.solutions[0], periodS, fine, false);
-  const record = check.ok ? check.run.record : shot.run.record;
-  if (check.ok) {
+  const relChange = (from: Float64Array, to: Float64Array) => {
     let worst = 0;
     let scale = 1e-6 * vScale;
-    for (let j = 0; j < shot.state.length; j++) {
-      worst = Math.max(worst, Math.abs(check.run.endV[j] - shot.state[j]));
-      scale = Math.max(scale, Math.abs(shot.state[j]));
+    for (let j = 0; j < from.length; j++) {
+      worst = Math.max(worst, Math.abs(to[j] - from[j]));
+      scale = Math.max(scale, Math.abs(from[j]));
     }
-    diagnostics.push({ severity: 'info', code: 'period-check', message: `period-to-period change on the backward-Euler measuring grid ${(worst / scale).toExponential(2)} (relative)` });
+    return worst / scale;
+  };
+  let check = integratePeriod(measuring, shot.state, shot.run.record.solutions[0], periodS, fine, false);
+  if (check.ok) {
+    const first = check.run;
+    const mSlots = shot.state.length;
+    const a = new Float64Array(mSlots * mSlots);
+    for (let i = 0; i < a.length; i++) a[i] = -shot.monodromy[i];
+    for (let j = 0; j < mSlots; j++) a[j * mSlots + j] += 1;
+    const lu = DenseLu.factor(a, mSlots);
+    if (lu.ok) {
+      const r = new Float64Array(mSlots);
+      for (let j = 0; j < mSlots; j++) r[j] = first.endV[j] - shot.state[j];
+      const d = lu.lu.solve(r);
+      const start = Float64Array.from(shot.state, (v, j) => v + d[j]);
+      const again = integratePeriod(measuring, start, first.record.solutions[0], periodS, fine, false);
+      if (again.ok && relChange(start, again.run.endV) < relChange(shot.state, first.endV)) check = again;
+      else check = { ok: true, run: first };
+    }
+    const startV = check.run.record.solutions[0];
+    const slotsStart = new Float64Array(mSlots);
+    for (let j = 0; j < mSlots; j++) slotsStart[j] = startV[engine.store.pos[j]] - startV[engine.store.neg[j]];
+    diagnostics.push({ severity: 'info', code: 'period-check', message: `period-to-period change on the backward-Euler measuring grid ${relChange(slotsStart, check.run.endV).toExponential(2)} (relative)` });
   }
+  const record = check.ok ? check.run.record : shot.run.record;
   const points = Math.min(400, Math.max(0, options.waveformPoints ?? 200));
   const v = measureVoltages(circuit, shot.run.record, points);
   const outputs = options.outputNodes?.map((node) => ({ node, polarity: ((v.nodes[node]?.mean ?? 0) < 0 ? 'negative' : 'positive') as 'positive' | 'negative' })) ?? pickOutputs(v.nodes);
