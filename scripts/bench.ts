@@ -266,9 +266,12 @@ for (const [name, pick, limit] of accuracy) {
   console.log(`${verdict(w ? Math.abs(w.v) <= limit : null)}  ${name.padEnd(44)} worst ${w ? `${w.v.toFixed(3)} % (${caseName(w.r)})` : '—'}`);
 }
 console.log(`${verdict(big.length ? medianRatio >= 50 : null)}  ${'engine ≥ 50× faster than ngspice, n ≥ 8'.padEnd(44)} median ratio ${fmt(medianRatio, 1)} over ${big.length} cases`);
-const twentyAll = rows.filter((r) => r.c.o.stages === 20 && r.c.o.kind === 'half-wave');
-const twentyWorst = Math.max(twentyMs, ...twentyAll.map((r) => r.oursMs));
-console.log(`${verdict(Number.isFinite(twentyWorst) ? twentyWorst < 300 : null)}  ${'20-stage solve < 300 ms'.padEnd(44)} ${fmt(twentyWorst, 0)} ms (slowest 20-stage half-wave solve above)`);
+// The target is the 20-stage inverter ladder; the mains one (same circuit in units of the period) is shown beside it.
+const twentyRow = (f: number) => rows.find((r) => r.c.o.stages === 20 && r.c.o.kind === 'half-wave' && r.c.o.frequencyHz === f && r.c.label.startsWith('half-wave '))?.oursMs ?? NaN;
+const twentyWorst = Math.max(...[twentyMs, twentyRow(INVERTER_HZ)].filter(Number.isFinite));
+console.log(
+  `${verdict(Number.isFinite(twentyWorst) ? twentyWorst < 300 : null)}  ${'20-stage solve < 300 ms (40 kHz)'.padEnd(44)} ${fmt(twentyWorst, 0)} ms (slower of the table row ${fmt(twentyRow(INVERTER_HZ), 0)} ms and the cost table ${fmt(twentyMs, 0)} ms); at 50 Hz ${fmt(twentyRow(MAINS_HZ), 0)} ms`,
+);
 console.log(`${verdict(estimateMedianMs < 1)}  ${'design equations < 1 ms'.padEnd(44)} ${(estimateMedianMs * 1000).toFixed(1)} µs per estimateLadder call (median of 2000, n = 20)`);
 console.log(`${verdict(Number.isFinite(exponent) ? exponent <= 2 : null)}  ${'cost growth exponent ≤ ~2'.padEnd(44)} ${fmt(exponent, 2)}`);
 if (failures.length) console.log(`\nfailed: ${failures.join('; ')}`);

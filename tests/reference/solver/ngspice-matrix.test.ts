@@ -1,8 +1,8 @@
 // Engine against ngspice (Debian package, `ngspice -b`) over a matrix of generated ladders, with
-// the same SPICE level-1 diode model in both: full-wave, bipolar, a 12-stage half-wave, an
-// inverter-frequency ladder, a source resistance, stray capacitance, and the warm-up from
-// power-on. Tolerances from the brief: output mean 0.2 %, every node mean 0.5 % of the output,
-// ripple p-p 3 %, diode PIV 1 %, t90 5 %.
+// the same SPICE level-1 diode model in both: full-wave, bipolar, negative polarity, a 12-stage
+// half-wave, an inverter-frequency ladder, a source resistance, stray capacitance, and the
+// warm-up from power-on. Tolerances from the brief: output mean 0.2 %, every node mean 0.5 % of
+// the output, ripple p-p 3 %, diode PIV 1 %, t90 5 %.
 //
 // Two ways to get ngspice's steady state:
 // - Settled reference (small ladders): a plain transient from the ideal no-load charge state for
@@ -117,6 +117,7 @@ function checkHold(o: LadderOptions): void {
 describe('steady state against ngspice, settled from the no-load state', () => {
   it('full-wave n = 4 at 50 Hz', () => checkSettled(ladder('full-wave', 4, 50)), 60_000);
   it('bipolar n = 4 at 1 kHz', () => checkSettled(ladder('bipolar', 4, 1000)), 60_000);
+  it('negative half-wave n = 4 at 40 kHz', () => checkSettled(ladder('half-wave', 4, 40_000, { polarity: 'negative' })), 60_000);
   // 50 Ω is about a sixth of the 318 Ω stage-capacitor reactance; it slows settling, so τ also
   // comes from the engine's warm-up.
   it('half-wave n = 4 at 50 Hz behind a 50 Ω source', () => checkSettled(ladder('half-wave', 4, 50, { sourceResistanceOhm: 50 }), { tau: tauFromWarmup }), 60_000);
