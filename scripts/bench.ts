@@ -16,7 +16,9 @@
  * trapezoidal rule at T/400 is within 0.002 % of Gear-2 at T/800 (at n = 20 within ~0.05–0.08 %),
  * at half its cost. 12·n² + 40 periods settle every ladder here to well under 1e-5 per period
  * on the first run, so ngspice's own remaining distance (drift × a settling time of ~1.6·n²
- * periods) stays below ~1e-4 of the output. The 20-stage runs dominate: ~80 s each.
+ * periods) stays below ~1e-4 of the output. The 20-stage runs dominate: ~80 s each. To show
+ * ngspice's own step error, the 12-stage inverter case is rerun at T/800 and both the move of
+ * ngspice's result and the engine's difference to it are printed.
  * Warm-up t90 comes from a separate ngspice run from power-on (all capacitors empty): the
  * per-cycle mean of the output crossing 90 % of ngspice's own steady-state mean, interpolated
  * between cycle means as the engine does.
@@ -109,6 +111,8 @@ interface Row {
   periods: number;
   settle: number;
   settled: boolean;
+  /** Output mean and ripple (V), engine and ngspice. */
+  out: { oursMean: number; oursRipple: number; ngMean: number; ngRipple: number };
 }
 
 function runCase(c: BenchCase): Row | { c: BenchCase; failed: string } {
@@ -161,6 +165,7 @@ function runCase(c: BenchCase): Row | { c: BenchCase; failed: string } {
     periods: ng.periods,
     settle: ng.settle,
     settled: ng.settled,
+    out: { oursMean: ours.nodes[out].mean, oursRipple: ours.nodes[out].ripple, ngMean: outMean, ngRipple: ng.nodes[out].ripple },
   };
 }
 
@@ -203,6 +208,18 @@ for (const c of cases) {
 }
 for (const r of rows) if (r.t90Note) console.log(`${r.c.label} n=${r.c.o.stages}: ${r.t90Note}`);
 if (rows.some((r) => !r.settled)) console.log("'!' after settle: ngspice stopped at its period limit before the last two periods agreed to the tolerance.");
+
+// ngspice's own step error: the 12-stage inverter case again at half the step (the 20-stage one would take ~3 min).
+const check = rows.find((r) => r.c.o.kind === 'half-wave' && r.c.o.stages === 12 && r.c.o.frequencyHz === INVERTER_HZ && r.c.label === 'half-wave inverter');
+if (check && !quick) {
+  const nl = generateLadder(check.c.o);
+  const out = ladderOutputs(check.c.o)[0].node;
+  const fine = ngspiceReference(nl, { frequencyHz: INVERTER_HZ, nodes: [out], outputNode: out, periods: check.periods, settleTol: SETTLE_TOL, maxPeriods: check.periods, stepsPerPeriod: 2 * STEPS_PER_PERIOD, start: 'no-load' });
+  const m = fine.nodes[out];
+  console.log(
+    `\nngspice step check (half-wave n=12, 40 kHz, T/${2 * STEPS_PER_PERIOD}): output mean moves ${pct(m.mean, check.out.ngMean).toFixed(4)} %, ripple ${pct(m.ripple, check.out.ngRipple).toFixed(3)} % from T/${STEPS_PER_PERIOD}; engine − ngspice at T/${2 * STEPS_PER_PERIOD}: mean ${pct(check.out.oursMean, m.mean).toFixed(4)} %, ripple ${pct(check.out.oursRipple, m.ripple).toFixed(3)} % (${(fine.finalRunMs / 1000).toFixed(0)} s)`,
+  );
+}
 
 // Design equations: closed-form estimate of the 20-stage inverter ladder, median of many calls.
 const estimateInput = { topology: 'half-wave' as const, stages: 20, drivePeakV: 1000, frequencyHz: INVERTER_HZ, pumpC: new Array(20).fill(1.25e-8), smoothC: new Array(20).fill(1.25e-8), loadCurrentA: 1e-3 };
