@@ -249,6 +249,14 @@ export function crestGuess(circuit: Circuit, frequencyHz: number, steps = 128): 
   const store = circuit.createChargeStore({ name: 'none', order: 1, coefficients: () => undefined, truncationError: () => 0 });
   const branchV = new Float64Array(circuit.slots.length);
   for (let s = 0; s < branchV.length; s++) branchV[s] = sol[store.pos[s]] - sol[store.neg[s]];
+  // The linear model has no junction between impulses, so a diode can read volts forward at
+  // t = 0; a real junction sits at most near its critical voltage (a charge state far beyond it
+  // would overflow the exponential of the diffusion charge).
+  for (const d of diodes) {
+    if (d.slot < 0) continue;
+    branchV[d.slot] = Math.min(branchV[d.slot], d.vcrit);
+    sol[d.ij] = Math.min(sol[d.ij], sol[d.ik] + d.vcrit);
+  }
   return { x: sol, branchV, pulseChargeC: charge, pulseStep, mean, swing };
 }
 

@@ -177,6 +177,12 @@ export function allDiodesConduct(circuit: Circuit, record: PeriodRecord): boolea
   return charge.every((q) => q >= 1e-3 * most);
 }
 
+function norm2(v: Float64Array): number {
+  let s = 0;
+  for (const x of v) s += x * x;
+  return Math.sqrt(s);
+}
+
 function relResidual(s: Float64Array, end: Float64Array, floorV: number): { rel: number; norm: number } {
   let worst = 0;
   let scale = floorV;
@@ -288,7 +294,17 @@ export function shootPeriodicSteadyState(
         continue;
       }
       const r2 = relResidual(trial, out.run.endV, floorV);
-      if (r2.norm < res.norm || r2.rel <= o.tolerance) {
+      // Acceptance by Deuflhard's natural monotonicity test (Newton Methods for Nonlinear
+      // Problems, Springer 2004, §3.3): the simplified correction at the trial point, with the
+      // same operator, must be shorter than the step taken. The residual itself is a poor
+      // measure near the ladder's slow modes (eigenvalues of M close to 1): there a state volts
+      // away from the answer changes by millivolts per period, and the way to it can raise the
+      // residual on the way.
+      const rTrial = new Float64Array(m);
+      for (let j = 0; j < m; j++) rTrial[j] = out.run.endV[j] - trial[j];
+      const bar = f.lu.solve(rTrial);
+      const monotone = norm2(bar) <= (1 - lambda / 4) * norm2(delta);
+      if (monotone || r2.norm < res.norm || r2.rel <= o.tolerance) {
         // Switched evolution relaxation: grow K as the residual falls.
         const gain = res.norm / Math.max(r2.norm, 1e-300);
         pseudoK = Math.min(1e15, pseudoK * Math.min(100, Math.max(0.5, gain)) * (r2.norm < res.norm ? 2 : 1));

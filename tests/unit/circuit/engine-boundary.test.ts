@@ -36,7 +36,7 @@ describe('engine boundary', () => {
       }
       // Code only: comments may mention these words.
       const code = text.replace(/\/\*[\s\S]*?\*\//g, '').replace(/\/\/.*$/gm, '');
-      for (const g of [/\bprocess\./, /\brequire\(/, /\bwindow\./, /\bdocument\./, /\bBuffer\b/, /\b__dirname\b/]) {
+      for (const g of [/\bprocess\./, /\brequire\(/, /\bwindow\./, /\bdocument\./, /\bBuffer\b/, /\b__dirname\b/, /\bglobalThis\b/, /\bconsole\./]) {
         expect(g.test(code), `${rel} uses ${g.source}`).toBe(false);
       }
     });
