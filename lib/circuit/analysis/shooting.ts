@@ -306,8 +306,9 @@ export function shootPeriodicSteadyState(
       const monotone = norm2(bar) <= (1 - lambda / 4) * norm2(delta);
       if (monotone || r2.norm < res.norm || r2.rel <= o.tolerance) {
         // Switched evolution relaxation: grow K as the residual falls.
-        const gain = res.norm / Math.max(r2.norm, 1e-300);
-        pseudoK = Math.min(1e15, pseudoK * Math.min(100, Math.max(0.5, gain)) * (r2.norm < res.norm ? 2 : 1));
+        // The gain is the better of the residual's fall and the corrections' contraction.
+        const gain = Math.max(res.norm / Math.max(r2.norm, 1e-300), norm2(delta) / Math.max(norm2(bar), 1e-300));
+        pseudoK = Math.min(1e15, pseudoK * Math.min(100, Math.max(0.5, gain)) * (r2.norm < res.norm || monotone ? 2 : 1));
         const contracted = r2.norm <= 0.2 * res.norm;
         s = trial;
         run = out.run;
