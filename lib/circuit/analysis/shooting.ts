@@ -251,12 +251,9 @@ export function shootPeriodicSteadyState(
       return { ok: true, state: s, run, monodromy: mono, iterations: it - 1, residual: res.rel, periodsIntegrated: periods, history };
     }
     if (!control.grid && res.rel < o.freezeBelow) {
-      // Re-evaluate on the frozen grid so that residual and monodromy belong to the same map.
+      // The grid is the one the last period from s chose, so that period is already the frozen
+      // map's value at s: residual and monodromy carry over without another period.
       control = { ...o.control, grid: run.record.timesS.subarray(1) };
-      const failed = refresh();
-      if (failed) return { ok: false, reason: failed, iterations: it, residual: res.rel, periodsIntegrated: periods, history };
-      history.push(res.rel);
-      if (res.rel <= o.tolerance) continue;
     }
     // Pseudo-transient continuation on the period map (Kelley & Keyes, SIAM J. Numer. Anal.
     // 35(2), 1998), which is backward Euler over K periods of the envelope ds/dc = φ(s) − s:
