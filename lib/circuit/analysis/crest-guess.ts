@@ -24,7 +24,7 @@
  */
 import { DenseLu } from '../linalg/dense-lu';
 import { BandMatrix } from '../linalg/band-lu';
-import type { Circuit } from '../mna/circuit';
+import { driveAmplitudeV, type Circuit } from '../mna/circuit';
 import type { InitialGuess } from './initial-guess';
 import { phasorSolution } from './initial-guess';
 
@@ -58,8 +58,7 @@ export function crestGuess(circuit: Circuit, frequencyHz: number, steps = 128): 
   const h = periodS / steps;
   const omega = 2 * Math.PI * frequencyHz;
 
-  let amplitude = 0;
-  for (const v of circuit.voltageSources) amplitude = Math.max(amplitude, Math.abs(v.sine?.amplitude ?? 0) + Math.abs(v.sine?.offsetV ?? v.dcV));
+  const amplitude = driveAmplitudeV(circuit);
   if (!(amplitude > 0)) return null;
 
   // Impulse instant of every diode: the crest of its AC voltage Im(D·e^{jωt}) = re·sin + im·cos.

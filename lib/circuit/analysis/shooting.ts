@@ -183,7 +183,11 @@ function norm2(v: Float64Array): number {
   return Math.sqrt(s);
 }
 
-function relResidual(s: Float64Array, end: Float64Array, floorV: number): { rel: number; norm: number } {
+/**
+ * Period-to-period change from state s to end: max|end − s| / max(max|s|, floorV) (`rel`, the
+ * convergence measure) and its 2-norm (V).
+ */
+export function relResidual(s: Float64Array, end: Float64Array, floorV: number): { rel: number; norm: number } {
   let worst = 0;
   let scale = floorV;
   let norm = 0;

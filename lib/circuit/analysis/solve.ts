@@ -6,13 +6,13 @@
  * budget and returns a plain, serialisable value; failures are `{ ok: false, reason }`.
  */
 import type { Netlist } from '../netlist/types';
-import { buildCircuit, type Circuit, type SolverDiagnostic } from '../mna/circuit';
+import { buildCircuit, driveAmplitudeV, type Circuit, type SolverDiagnostic } from '../mna/circuit';
 import { measurePeriod, measureVoltages, outputEnergy, type NodeMeasure, type PartMeasure, type PeriodMeasures } from '../measures/period-measures';
 import { crestGuess, type CrestGuess } from './crest-guess';
 import { noLoadGuess } from './initial-guess';
 import { safetySummary, type SafetySummary } from '../measures/safety-summary';
 import { solveOperatingPoint } from './operating-point';
-import { integratePeriod, shootPeriodicSteadyState } from './shooting';
+import { integratePeriod, relResidual, shootPeriodicSteadyState } from './shooting';
 import { TransientEngine, type StepControl } from './transient';
 import { backwardEuler } from '../integration/methods';
 import { DenseLu } from '../linalg/dense-lu';
@@ -84,8 +84,7 @@ export type SolveResult =
 
 function drivePeriod(circuit: Circuit): { ok: true; frequencyHz: number; amplitude: number } | { ok: false; reason: string } {
   const freqs = circuit.sources.map((s) => s.frequencyHz()).filter((f) => f > 0);
-  let amplitude = 0;
-  for (const v of circuit.voltageSources) amplitude = Math.max(amplitude, Math.abs(v.sine?.amplitude ?? 0) + Math.abs(v.sine?.offsetV ?? v.dcV));
+  const amplitude = driveAmplitudeV(circuit);
   for (const v of circuit.voltageSources) {
     if (v.sine && v.sine.damping !== 0) return { ok: false, reason: `${v.name}: a damped sine (THETA ≠ 0) has no periodic steady state` };
   }
@@ -230,15 +229,7 @@ export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): Solv
   // < 0.3 % between hMax = T/100 and T/1600 on the 4- and 20-stage benchmark ladders.
   const fine: StepControl = { ...control };
   const measuring = new TransientEngine(circuit, backwardEuler);
-  const relChange = (from: Float64Array, to: Float64Array) => {
-    let worst = 0;
-    let scale = 1e-6 * vScale;
-    for (let j = 0; j < from.length; j++) {
-      worst = Math.max(worst, Math.abs(to[j] - from[j]));
-      scale = Math.max(scale, Math.abs(from[j]));
-    }
-    return worst / scale;
-  };
+  const relChange = (from: Float64Array, to: Float64Array) => relResidual(from, to, 1e-6 * vScale).rel;
   let check = integratePeriod(measuring, shot.state, shot.run.record.solutions[0], periodS, fine, false);
   if (check.ok) {
     const first = check.run;

@@ -59,6 +59,13 @@ export interface Circuit {
 
 export type BuildOutcome = { ok: true; circuit: Circuit } | { ok: false; reason: string; diagnostics: SolverDiagnostic[] };
 
+/** Largest |offset| + amplitude of any voltage source (V): the scale of the drive. */
+export function driveAmplitudeV(circuit: Pick<Circuit, 'voltageSources'>): number {
+  let amplitude = 0;
+  for (const v of circuit.voltageSources) amplitude = Math.max(amplitude, Math.abs(v.sine?.amplitude ?? 0) + Math.abs(v.sine?.offsetV ?? v.dcV));
+  return amplitude;
+}
+
 /** Creates devices for every element and binds them into one MNA system. */
 export function buildCircuit(netlist: Netlist): BuildOutcome {
   const diagnostics: SolverDiagnostic[] = [];
