@@ -14,6 +14,9 @@ import { safetySummary, type SafetySummary } from '../measures/safety-summary';
 import { solveOperatingPoint } from './operating-point';
 import { integratePeriod, relResidual, shootPeriodicSteadyState } from './shooting';
 import { TransientEngine, type StepControl } from './transient';
+import { warmupFromPowerOn, type WarmupResult } from './warmup';
+
+export type { WarmupResult } from './warmup';
 import { backwardEuler } from '../integration/methods';
 import { DenseLu } from '../linalg/dense-lu';
 
@@ -32,19 +35,6 @@ export interface SolveOptions {
   lteRel?: number;
   /** Largest time step as a fraction of the period. Default 1/100. */
   maxStepFraction?: number;
-}
-
-export interface WarmupResult {
-  /** Time to reach 90 % / 99 % of the steady-state output mean (s); null if not reached. */
-  t90: number | null;
-  t99: number | null;
-  /** The same in drive cycles. */
-  cycles90: number | null;
-  cycles99: number | null;
-  /** Cycles integrated. */
-  cyclesIntegrated: number;
-  /** Per-cycle mean of the (first) output (V), one value per cycle. */
-  cycleMeans: number[];
 }
 
 export interface SolveStats {
@@ -271,7 +261,14 @@ export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): Solv
   let warmupMs: number | undefined;
   if (options.warmup && outputs.length > 0) {
     const w0 = performance.now();
-    const w = solveWarmupFrom(circuit, periodS, outputs[0].node, m.nodes[outputs[0].node].mean, vScale, deadline);
+    const w = warmupFromPowerOn(circuit, {
+      periodS,
+      outputNode: outputs[0].node,
+      finalMeanV: m.nodes[outputs[0].node].mean,
+      control: { hMaxS: periodS / 40, hMinS: periodS * 1e-9, hInitS: periodS * 1e-4, lteRel: 2e-5, lteAbsV: 1e-8 * vScale, vScaleV: vScale, deadlineMs: deadline },
+      // One cycle per diode before envelope steps: the stages start conducting one by one.
+      bruteCycles: Math.max(8, circuit.diodes.length),
+    });
     warmupMs = performance.now() - w0;
     if (w.ok) warmup = w.result;
     else diagnostics.push({ severity: 'warning', code: 'warmup-incomplete', message: w.reason });
@@ -291,74 +288,6 @@ export function solveNetlist(netlist: Netlist, options: SolveOptions = {}): Solv
     warmup,
     stats: { ...statsBase, newtonIterations: engine.newton.totalIterations, solveMs, steps: shot.run.steps, phaseMs, warmupMs },
     diagnostics,
-  };
-}
-
-/**
- * Warm-up from power-on: transient analysis from empty capacitors with a coarser LTE tolerance,
- * one cycle at a time, recording each cycle's mean output; stops at 99.5 % of the steady-state
- * mean (or the budget). Crossing times of 90 % and 99 % are interpolated between cycle ends.
- */
-function solveWarmupFrom(
-  circuit: Circuit,
-  periodS: number,
-  outputNode: string,
-  finalMeanV: number,
-  vScale: number,
-  deadline: number,
-): { ok: true; result: WarmupResult } | { ok: false; reason: string } {
-  const engine = new TransientEngine(circuit);
-  engine.start(0, new Float64Array(circuit.slots.length));
-  const out = circuit.nodeOffset.get(outputNode)!;
-  const control: StepControl = {
-    hMaxS: periodS / 40,
-    hMinS: periodS * 1e-9,
-    hInitS: periodS * 1e-4,
-    lteRel: 2e-5,
-    lteAbsV: 1e-8 * vScale,
-    vScaleV: vScale,
-    deadlineMs: deadline,
-  };
-  const means: number[] = [];
-  const target = Math.abs(finalMeanV);
-  let c90: number | null = null;
-  let c99: number | null = null;
-  const cross = (frac: number, c: number): number => {
-    const prev = c > 0 ? Math.abs(means[c - 1]) : 0;
-    const cur = Math.abs(means[c]);
-    const level = frac * target;
-    return c + (cur > prev ? (level - prev) / (cur - prev) : 1);
-  };
-  for (let cycle = 0; cycle < 100_000; cycle++) {
-    let acc = 0;
-    let tPrev = engine.timeS;
-    let vPrev = engine.x[out];
-    const r = engine.run((cycle + 1) * periodS, control, (t, _h, x) => {
-      acc += 0.5 * (x[out] + vPrev) * (t - tPrev);
-      tPrev = t;
-      vPrev = x[out];
-    });
-    if (!r.ok) {
-      if (means.length === 0) return { ok: false, reason: `warm-up: ${r.reason}` };
-      break;
-    }
-    means.push(acc / periodS);
-    const c = means.length - 1;
-    const level = Math.abs(means[c]);
-    if (c90 === null && level >= 0.9 * target) c90 = cross(0.9, c);
-    if (c99 === null && level >= 0.99 * target) c99 = cross(0.99, c);
-    if (level >= 0.995 * target) break;
-  }
-  return {
-    ok: true,
-    result: {
-      t90: c90 === null ? null : c90 * periodS,
-      t99: c99 === null ? null : c99 * periodS,
-      cycles90: c90,
-      cycles99: c99,
-      cyclesIntegrated: means.length,
-      cycleMeans: means,
-    },
   };
 }
 
