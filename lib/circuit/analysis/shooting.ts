@@ -134,7 +134,9 @@ export interface ShootingOptions {
   initialPeriods: number;
   /**
    * Start with Newton's step (K = 1e6) instead when the first relative residual is below this
-   * (a close initial state, such as the crest model's on a ladder below its optimum load).
+   * (a close initial state, such as the crest model's on a ladder below its optimum load); the
+   * time grid is then frozen at once, from that first period, since the state will not move
+   * far enough to need another (so the first Newton step already works on one smooth map).
    */
   newtonBelow?: number;
   /** Keep the monodromy across steps (chord method) once the residual is below this. Default 1e-4. */
@@ -234,7 +236,9 @@ export function shootPeriodicSteadyState(
   if (!first.ok) return { ok: false, reason: first.reason, iterations: 0, residual: Infinity, periodsIntegrated: periods, history };
   let run = first.run;
   let res = relResidual(s, run.endV, floorV);
-  let pseudoK = o.newtonBelow !== undefined && res.rel < o.newtonBelow ? 1e6 : o.initialPeriods;
+  const newtonStart = o.newtonBelow !== undefined && res.rel < o.newtonBelow;
+  let pseudoK = newtonStart ? 1e6 : o.initialPeriods;
+  const freezeBelow = newtonStart ? Math.max(o.freezeBelow, o.newtonBelow!) : o.freezeBelow;
   const chordBelow = o.chordBelow ?? 1e-4;
   // Monodromy of the last period integrated with sensitivities, and whether it belongs to s.
   let mono = run.monodromy!;
@@ -254,7 +258,7 @@ export function shootPeriodicSteadyState(
     if (res.rel <= o.tolerance) {
       return { ok: true, state: s, run, monodromy: mono, iterations: it - 1, residual: res.rel, periodsIntegrated: periods, history };
     }
-    if (!control.grid && res.rel < o.freezeBelow) {
+    if (!control.grid && res.rel < freezeBelow) {
       // The grid is the one the last period from s chose, so that period is already the frozen
       // map's value at s: residual and monodromy carry over without another period.
       control = { ...o.control, grid: run.record.timesS.subarray(1) };
