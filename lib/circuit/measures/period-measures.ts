@@ -225,32 +225,23 @@ export function measurePeriod(circuit: Circuit, record: PeriodRecord, outputs: s
   const t = record.timesS;
   const X = record.solutions;
   const I = record.slotCurrents;
-  const nodes: Record<string, NodeMeasure> = {};
-  for (const name of circuit.nodeNames) {
-    const o = circuit.nodeOffset.get(name)!;
-    const a = average(t, (k) => X[k][o]);
-    nodes[name] = { mean: a.mean, min: a.min, max: a.max, ripple: a.max - a.min };
-    if (waveformPoints > 1) nodes[name].waveform = downsample(t, (k) => X[k][o], waveformPoints);
-  }
+  const voltages = measureVoltages(circuit, record, waveformPoints);
+  const nodes = voltages.nodes;
+  const totalJ = voltages.totalJ;
   const parts: Record<string, PartMeasure> = {};
-  let totalJ = 0;
   let worstMean = 0;
   let worstRms = 0;
   for (const c of circuit.capacitors) {
-    const v = average(t, (k) => X[k][c.ia] - X[k][c.ib]);
     const i = average(t, (k) => I[k][c.slot]);
-    const energyJ = 0.5 * c.capacitanceF * v.mean * v.mean;
-    totalJ += energyJ;
     worstMean = Math.max(worstMean, Math.abs(i.mean));
     worstRms = Math.max(worstRms, i.sq);
-    parts[c.name] = { kind: 'C', capacitanceF: c.capacitanceF, dcV: v.mean, peakV: Math.max(Math.abs(v.min), Math.abs(v.max)), rmsCurrentA: i.sq, meanCurrentA: i.mean, energyJ };
+    parts[c.name] = { kind: 'C', capacitanceF: c.capacitanceF, ...voltages.capacitors[c.name], rmsCurrentA: i.sq, meanCurrentA: i.mean };
   }
   const diodeCurrent = (d: Circuit['diodes'][number], k: number) => d.staticCurrent(X[k]) + (d.slot >= 0 ? I[k][d.slot] : 0);
   for (const d of circuit.diodes) {
     const i = average(t, (k) => diodeCurrent(d, k));
-    const rev = average(t, (k) => X[k][d.ik] - X[k][d.ia]);
     const p = { mean: meanPower(t, (k) => X[k][d.ia] - X[k][d.ik], (k) => diodeCurrent(d, k)) };
-    parts[d.name] = { kind: 'D', pivV: Math.max(0, rev.max), peakCurrentA: i.max, averageCurrentA: i.mean, rmsCurrentA: i.sq, dissipationW: p.mean };
+    parts[d.name] = { kind: 'D', pivV: voltages.pivV[d.name], peakCurrentA: i.max, averageCurrentA: i.mean, rmsCurrentA: i.sq, dissipationW: p.mean };
   }
   const outSet = new Set(outputs.map((o) => circuit.nodeOffset.get(o)));
   const ground = circuit.size;
