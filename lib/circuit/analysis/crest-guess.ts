@@ -120,23 +120,29 @@ export function crestGuess(circuit: Circuit, frequencyHz: number, steps = 128): 
   const clampV = new Float64Array(nd * cols);
   const diodeA = Int32Array.from(diodes, (d) => d.ia);
   const diodeK = Int32Array.from(diodes, (d) => d.ik);
-  for (let k = 1; k <= steps; k++) {
+  // Right-hand side of step k for `w` columns: the capacitors' history currents from `cv`, the
+  // sources in column 0, and the impulses `impulse(d)` gives as (column, charge).
+  const rightHandSide = (b: Float64Array, cv: Float64Array, w: number, k: number, impulse: (d: number) => [number, number] | null) => {
     const t = k * h;
-    x.fill(0);
-    addHistory(x, capV, capA, capB, capG, cols);
-    for (const v of circuit.voltageSources) x[v.ibr * cols] += v.value(t);
+    b.fill(0);
+    addHistory(b, cv, capA, capB, capG, w);
+    for (const v of circuit.voltageSources) b[v.ibr * w] += v.value(t);
     for (const s of circuit.currentSources) {
       const i = s.value(t);
-      x[s.ip * cols] -= i;
-      x[s.in * cols] += i;
+      b[s.ip * w] -= i;
+      b[s.in * w] += i;
     }
     for (let d = 0; d < nd; d++) {
       if (pulseStep[d] !== k) continue;
-      const col = 1 + mc + d;
-      x[diodeA[d] * cols + col] -= 1 / h;
-      x[diodeK[d] * cols + col] += 1 / h;
+      const p = impulse(d);
+      if (!p) continue;
+      b[diodeA[d] * w + p[0]] -= p[1] / h;
+      b[diodeK[d] * w + p[0]] += p[1] / h;
     }
-    x.fill(0, n * cols);
+    b.fill(0, n * w);
+  };
+  for (let k = 1; k <= steps; k++) {
+    rightHandSide(x, capV, cols, k, (d) => [1 + mc + d, 1]);
     band.solveMany(x, cols);
     x.fill(0, n * cols);
     branchColumns(x, capV, capA, capB, 0, mc, cols);
@@ -212,29 +218,10 @@ export function crestGuess(circuit: Circuit, frequencyHz: number, steps = 128): 
   for (let j = 0; j < mc; j++) u[j] = z[j];
   const b1 = new Float64Array(n + 1);
   for (let k = 1; k <= steps; k++) {
-    const t = k * h;
-    b1.fill(0);
-    for (let j = 0; j < mc; j++) {
-      const c = caps[j];
-      const ieq = (c.capacitanceF / h) * u[j];
-      b1[c.ia] += ieq;
-      b1[c.ib] -= ieq;
-    }
-    for (const v of circuit.voltageSources) b1[v.ibr] += v.value(t);
-    for (const s of circuit.currentSources) {
-      const i = s.value(t);
-      b1[s.ip] -= i;
-      b1[s.in] += i;
-    }
-    for (let d = 0; d < nd; d++) {
-      if (pulseStep[d] !== k || charge[d] === 0) continue;
-      b1[diodes[d].ia] -= charge[d] / h;
-      b1[diodes[d].ik] += charge[d] / h;
-    }
+    rightHandSide(b1, u, 1, k, (d) => (charge[d] === 0 ? null : [0, charge[d]]));
+    band.solveMany(b1, 1);
     b1[n] = 0;
-    band.solve(b1);
-    b1[n] = 0;
-    for (let j = 0; j < mc; j++) u[j] = b1[caps[j].ia] - b1[caps[j].ib];
+    branchColumns(b1, u, capA, capB, 0, mc, 1);
     for (let i = 0; i < n; i++) {
       mean[i] += b1[i] / steps;
       if (b1[i] < lo[i]) lo[i] = b1[i];
