@@ -6,20 +6,26 @@ import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import type { Visibility } from '@/lib/api/contract';
-import type { DesignDocument } from '@/lib/circuit/document/schema';
+import { DOCUMENT_SCHEMA_VERSION, type DesignDocument } from '@/lib/circuit/document/schema';
 import { fullWaveStarter, halfWaveStarter, symmetricStarter, type StarterOptions } from '@/lib/circuit/document/starters';
 import { parseEngineering } from '@/lib/circuit/netlist/units';
 import { ApiError, formError } from '@/lib/client/api';
 import { formatSi } from '@/lib/client/format';
 import { useCreateDesign } from '@/lib/client/hooks';
 
-type Starter = 'half-wave' | 'full-wave' | 'symmetric';
+type Starter = 'half-wave' | 'full-wave' | 'symmetric' | 'blank';
 
 const STARTERS: { value: Starter; label: string; note: string }[] = [
   { value: 'half-wave', label: 'Half-wave ladder', note: 'One drive, one pumping and one smoothing column.' },
   { value: 'full-wave', label: 'Full-wave ladder', note: 'Centre-tapped drive, two pumping columns in antiphase.' },
   { value: 'symmetric', label: 'Symmetric pair', note: 'A positive and a negative ladder about ground.' },
+  { value: 'blank', label: 'Empty canvas', note: 'Nothing drawn: build the circuit from the tray.' },
 ];
+
+/** An empty drawing with the default settings (derating 0.8, no strays, no bleeder). */
+function blankDocument(): DesignDocument {
+  return { schemaVersion: DOCUMENT_SCHEMA_VERSION, blocks: [], wires: [], settings: { strayCapacitanceF: 0, deratingFraction: 0.8 } };
+}
 
 const MAX_STAGES = 50;
 
@@ -41,6 +47,7 @@ type Errors = Partial<Record<FieldKey, string>>;
 function build(v: Values): { ok: true; document: DesignDocument } | { ok: false; errors: Errors } {
   const errors: Errors = {};
   if (!v.title.trim()) errors.title = 'Give the design a title.';
+  if (v.starter === 'blank') return Object.keys(errors).length > 0 ? { ok: false, errors } : { ok: true, document: blankDocument() };
   const n = Number(v.stages);
   if (!Number.isInteger(n) || n < 1 || n > MAX_STAGES) errors.stages = `Whole number from 1 to ${MAX_STAGES}.`;
   const amplitudeV = parseEngineering(v.amplitude);
@@ -113,7 +120,7 @@ export function NewDesignDialog({ teamId }: { teamId: string }) {
     }
     setErrors({});
     create.mutate(
-      { title: values.title.trim(), visibility: values.visibility, document: built.document, message: `Started from a ${values.starter} ladder` },
+      { title: values.title.trim(), visibility: values.visibility, document: built.document, message: values.starter === 'blank' ? 'Started from an empty canvas' : `Started from a ${values.starter} ladder` },
       {
         onSuccess: (res) => {
           dialogRef.current?.close();
@@ -142,7 +149,7 @@ export function NewDesignDialog({ teamId }: { teamId: string }) {
         <form onSubmit={onSubmit} className="space-y-4 p-6" noValidate>
           <div className="flex items-start justify-between gap-4">
             <h2 id={headingId} className="text-lg font-semibold text-ink-50">
-              New design from a starter ladder
+              New design
             </h2>
             <Button variant="ghost" onClick={() => dialogRef.current?.close()} aria-label="Close">
               ✕
@@ -153,7 +160,7 @@ export function NewDesignDialog({ teamId }: { teamId: string }) {
 
           <fieldset disabled={pending}>
             <legend className="mb-1 text-sm font-medium text-ink-200">Topology</legend>
-            <div className="grid gap-2 sm:grid-cols-3">
+            <div className="grid gap-2 sm:grid-cols-2">
               {STARTERS.map((s) => (
                 <label
                   key={s.value}
@@ -169,7 +176,8 @@ export function NewDesignDialog({ teamId }: { teamId: string }) {
             </div>
           </fieldset>
 
-          <div className="grid gap-4 sm:grid-cols-3">
+          <fieldset disabled={pending || values.starter === 'blank'} className="space-y-4 disabled:opacity-50" data-testid="starter-values">
+          <div className="grid gap-4 sm:grid-cols-2">
             <TextField label="Stages" name="stages" type="number" inputMode="numeric" min={1} max={MAX_STAGES} step={1} value={values.stages} onChange={(e) => set('stages', e.target.value)} error={err('stages')} disabled={pending} />
             <SelectField
               label="Output polarity"
@@ -182,10 +190,6 @@ export function NewDesignDialog({ teamId }: { teamId: string }) {
               {values.starter === 'symmetric' ? <option value="both">Both (±)</option> : null}
               <option value="positive">Positive</option>
               <option value="negative">Negative</option>
-            </SelectField>
-            <SelectField label="Visibility" name="visibility" value={values.visibility} onChange={(e) => set('visibility', e.target.value === 'private' ? 'private' : 'team')} disabled={pending}>
-              <option value="team">Shared with the team</option>
-              <option value="private">Private to me</option>
             </SelectField>
           </div>
 
@@ -205,6 +209,13 @@ export function NewDesignDialog({ teamId }: { teamId: string }) {
             <TextField label="Load current (A), optional" name="loadCurrent" value={values.loadCurrent} onChange={(e) => set('loadCurrent', e.target.value)} error={err('loadCurrent')} hint={preview(values.loadCurrent, 'A') ?? 'Blank = no load; e.g. 1m'} disabled={pending} autoComplete="off" />
           </div>
           <p className="text-xs text-ink-400">Values take SPICE suffixes: f p n u m k meg g t (note: m is milli, meg is mega).</p>
+          </fieldset>
+          <div className="grid gap-4 sm:grid-cols-3">
+            <SelectField label="Visibility" name="visibility" value={values.visibility} onChange={(e) => set('visibility', e.target.value === 'private' ? 'private' : 'team')} disabled={pending}>
+              <option value="team">Shared with the team</option>
+              <option value="private">Private to me</option>
+            </SelectField>
+          </div>
 
           <div className="flex justify-end gap-2">
             <Button variant="ghost" onClick={() => dialogRef.current?.close()} disabled={pending}>
