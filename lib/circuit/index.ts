@@ -18,3 +18,7 @@ export * from './netlist/generate';
 export * from './analysis/solve';
 export { buildCircuit, type Circuit, type SolverDiagnostic } from './mna/circuit';
 export type { NodeMeasure, PartMeasure, CapacitorMeasure, DiodeMeasure, ResistorMeasure, SourceMeasure, PeriodMeasures } from './measures/period-measures';
+export * from './document/geometry';
+export * from './document/tray';
+export * from './document/connect';
+export * from './document/ladder-ops';
