@@ -1,0 +1,2 @@
+export { BlockInspector } from './block-inspector';
+export { SettingsInspector } from './settings-inspector';
