@@ -238,3 +238,18 @@ export function useForkDesign(designId: string) {
     },
   });
 }
+
+/**
+ * Saves the editor's document as a new revision on top of `baseRevision`. A colleague's newer
+ * save answers 409 with `ApiError.latestRevision` (the editor offers reload/compare).
+ */
+export function useSaveRevision(designId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (body: { baseRevision: number; document: DesignDocumentInput; message?: string }) =>
+      api('POST /api/designs/:designId/revisions', { params: { designId }, body }),
+    onSuccess: async () => {
+      await Promise.all([qc.invalidateQueries({ queryKey: keys.design(designId) }), qc.invalidateQueries({ queryKey: keys.revisions(designId) })]);
+    },
+  });
+}
