@@ -1,0 +1,259 @@
+/**
+ * The editor side of the engine: schedules compile and solve jobs on two workers and keeps the
+ * {@link EngineSnapshot} the canvas and the panel read (a small external store: `subscribe` /
+ * `getSnapshot`, as `useSyncExternalStore` wants).
+ *
+ * Scheduling, so the UI never waits on the solver:
+ * - edits are coalesced for `debounceMs` after the first one of a burst (a throttle, so a drag
+ *   that edits every frame still gets an estimate every `debounceMs`);
+ * - the compile worker is only ever given the latest document, one job at a time (compile and
+ *   estimate take milliseconds, so it is always free for the next edit);
+ * - the solve worker runs a synchronous solve and cannot be interrupted, so when a newer
+ *   document arrives while it is busy (solve or warm-up) it is terminated and a fresh worker
+ *   takes the new job.
+ * Jobs carry their own increasing ids, so late replies of an older job are never mistaken for
+ * the current one even if the editor's version counter restarts.
+ */
+import type { DesignDocument } from '@/lib/circuit';
+import type { EngineSnapshot } from '../types';
+import type { EngineReply, EngineRequest } from './protocol';
+
+/** The part of `Worker` the controller uses (so tests can run the engine in-process). */
+export interface EngineWorker {
+  postMessage(message: EngineRequest): void;
+  terminate(): void;
+  onmessage: ((event: { data: EngineReply }) => void) | null;
+  onerror: ((event: { message?: string }) => void) | null;
+}
+
+export type EngineWorkerFactory = (role: 'compile' | 'solve') => EngineWorker;
+
+export interface EngineControllerOptions {
+  /** Coalescing window after the first edit of a burst (ms). Default 12. */
+  debounceMs?: number;
+  /** Run the warm-up after each steady-state solve. Default true. */
+  warmup?: boolean;
+  /** Clock (ms); default `performance.now`. */
+  now?: () => number;
+}
+
+interface Job {
+  id: number;
+  version: number;
+  document: DesignDocument;
+}
+
+/** The snapshot before any document was seen. */
+export function initialSnapshot(version = 0): EngineSnapshot {
+  return { status: 'idle', compiledVersion: null, solvedVersion: null, currentVersion: version, compile: null, estimate: null, solve: null, warmupPending: false, timings: {} };
+}
+
+export class EngineController {
+  private snapshot: EngineSnapshot = initialSnapshot();
+  private readonly listeners = new Set<() => void>();
+  private readonly debounceMs: number;
+  private readonly warmup: boolean;
+  private readonly now: () => number;
+  /** When the editor first saw each version (ms, `now()` clock). */
+  private readonly seenAt = new Map<number, number>();
+  private latest: Job | null = null;
+  private nextId = 1;
+  private timer: ReturnType<typeof setTimeout> | null = null;
+  private compileWorker: EngineWorker | null = null;
+  private compileBusy: Job | null = null;
+  /** Id of the last job given to the compile worker. */
+  private compileSent = 0;
+  private solveWorker: EngineWorker | null = null;
+  private solveBusy: Job | null = null;
+  /** Jobs already sent to each worker, by id (until their last reply). */
+  private readonly jobs = { compile: new Map<number, Job>(), solve: new Map<number, Job>() };
+  private disposed = false;
+  /** Last job whose compile, steady-state solve or solve failure arrived. */
+  private compiledId = 0;
+  private solvedId = 0;
+  private failedId = 0;
+
+  constructor(
+    private readonly factory: EngineWorkerFactory,
+    options: EngineControllerOptions = {},
+  ) {
+    this.debounceMs = options.debounceMs ?? 12;
+    this.warmup = options.warmup ?? true;
+    this.now = options.now ?? (() => performance.now());
+  }
+
+  readonly subscribe = (listener: () => void): (() => void) => {
+    this.listeners.add(listener);
+    return () => this.listeners.delete(listener);
+  };
+
+  readonly getSnapshot = (): EngineSnapshot => this.snapshot;
+
+  /** Record when a version was first seen (the start of the edit → shown timings). Idempotent. */
+  noteVersion(version: number): void {
+    if (!this.seenAt.has(version)) this.seenAt.set(version, this.now());
+    if (this.seenAt.size > 64) this.seenAt.delete(this.seenAt.keys().next().value as number);
+  }
+
+  /** A new document (or version) is on the canvas: mark results out of date and schedule the jobs. */
+  update(document: DesignDocument, version: number): void {
+    if (this.latest && this.latest.version === version && this.latest.document === document && !this.disposed) return;
+    this.disposed = false;
+    this.noteVersion(version);
+    this.latest = { id: this.nextId++, version, document };
+    this.set({ ...this.snapshot, currentVersion: version, status: 'compiling', reason: undefined });
+    if (this.timer === null) this.timer = setTimeout(() => this.flush(), this.debounceMs);
+  }
+
+  /** Stop both workers and pending timers (the editor unmounted). A later `update` starts again. */
+  dispose(): void {
+    this.disposed = true;
+    if (this.timer !== null) clearTimeout(this.timer);
+    this.timer = null;
+    this.compileWorker?.terminate();
+    this.solveWorker?.terminate();
+    this.compileWorker = this.solveWorker = null;
+    this.compileBusy = this.solveBusy = null;
+    this.compileSent = 0;
+    this.jobs.compile.clear();
+    this.jobs.solve.clear();
+    if (this.snapshot.warmupPending) this.set({ ...this.snapshot, warmupPending: false });
+  }
+
+  private set(next: EngineSnapshot): void {
+    this.snapshot = next;
+    for (const l of [...this.listeners]) l();
+  }
+
+  private flush(): void {
+    this.timer = null;
+    const job = this.latest;
+    if (!job || this.disposed) return;
+    this.sendCompile(job);
+    this.sendSolve(job);
+  }
+
+  private elapsedSince(version: number): number | undefined {
+    const t = this.seenAt.get(version);
+    return t === undefined ? undefined : this.now() - t;
+  }
+
+  private sendCompile(job: Job): void {
+    if (this.compileBusy || job.id <= this.compileSent) return; // a busy worker gets the latest job when it answers
+    this.compileSent = job.id;
+    const worker = (this.compileWorker ??= this.spawn('compile'));
+    this.compileBusy = job;
+    this.jobs.compile.set(job.id, job);
+    worker.postMessage({ type: 'compile', version: job.id, document: job.document });
+  }
+
+  private sendSolve(job: Job): void {
+    if (this.solveBusy) {
+      // The solver cannot be interrupted: drop that worker with its solve and start afresh.
+      this.solveWorker?.terminate();
+      this.solveWorker = null;
+      this.jobs.solve.delete(this.solveBusy.id);
+      this.solveBusy = null;
+      if (this.snapshot.warmupPending) this.set({ ...this.snapshot, warmupPending: false });
+    }
+    const worker = (this.solveWorker ??= this.spawn('solve'));
+    this.solveBusy = job;
+    this.jobs.solve.set(job.id, job);
+    worker.postMessage({ type: 'solve', version: job.id, document: job.document, warmup: this.warmup });
+  }
+
+  private spawn(role: 'compile' | 'solve'): EngineWorker {
+    const worker = this.factory(role);
+    worker.onmessage = (event) => {
+      if (worker === (role === 'compile' ? this.compileWorker : this.solveWorker)) this.receive(role, event.data);
+    };
+    worker.onerror = (event) => {
+      if (worker === (role === 'compile' ? this.compileWorker : this.solveWorker)) this.fail(role, `the engine worker stopped: ${event.message ?? 'script error'}`);
+    };
+    return worker;
+  }
+
+  /** A worker died (script error, out of memory): report it and let the next edit start a new one. */
+  private fail(role: 'compile' | 'solve', reason: string): void {
+    const busy = role === 'compile' ? this.compileBusy : this.solveBusy;
+    if (role === 'compile') {
+      this.compileWorker?.terminate();
+      this.compileWorker = null;
+      this.compileBusy = null;
+    } else {
+      this.solveWorker?.terminate();
+      this.solveWorker = null;
+      this.solveBusy = null;
+    }
+    if (busy) this.jobs[role].delete(busy.id);
+    if (busy && busy.id === this.latest?.id) this.set({ ...this.snapshot, status: 'cannot-solve', reason, warmupPending: false });
+  }
+
+  private receive(role: 'compile' | 'solve', reply: EngineReply): void {
+    const job = reply.version === null ? undefined : this.jobs[role].get(reply.version);
+    if (!job) return;
+    const current = this.latest?.id === job.id;
+    const s = this.snapshot;
+    switch (reply.type) {
+      case 'compiled': {
+        this.jobs.compile.delete(job.id);
+        this.compileBusy = null;
+        this.compiledId = job.id;
+        let status: Partial<EngineSnapshot> = {};
+        if (current && !reply.compile.ok) status = { status: 'cannot-solve', reason: reply.compile.reason };
+        else if (current) status = this.solvedId === job.id ? { status: 'solved' } : this.failedId === job.id ? {} : { status: 'solving' };
+        this.set({
+          ...s,
+          ...status,
+          compile: reply.compile,
+          estimate: reply.estimate,
+          compiledVersion: job.version,
+          timings: { ...s.timings, compileMs: reply.timings.compileMs, editToEstimateMs: this.elapsedSince(job.version) },
+        });
+        // A newer edit already past its coalescing window waited for this compile to finish.
+        if (this.latest && !current && this.timer === null && !this.disposed) this.sendCompile(this.latest);
+        return;
+      }
+      case 'solved':
+        this.solvedId = job.id;
+        this.set({
+          ...s,
+          solve: reply.solve,
+          solvedVersion: job.version,
+          warmupPending: this.warmup,
+          // "solved" once the compile of the same edit is shown too (it normally arrives first).
+          ...(current && this.compiledId === job.id ? { status: 'solved', reason: undefined } : {}),
+          timings: { ...s.timings, solveMs: reply.timings.solveMs, warmupMs: undefined, editToSolveMs: this.elapsedSince(job.version) },
+        });
+        if (!this.warmup) this.solveDone(job);
+        return;
+      case 'warmup':
+        this.solveDone(job);
+        if (this.solvedId !== job.id || !s.solve) return;
+        this.set({
+          ...s,
+          solve: reply.warmup ? { ...s.solve, warmup: reply.warmup } : s.solve,
+          warmupPending: false,
+          timings: { ...s.timings, warmupMs: reply.timings.warmupMs },
+        });
+        return;
+      case 'cannot-solve':
+        this.solveDone(job);
+        this.failedId = job.id;
+        if (current) this.set({ ...s, warmupPending: false, status: 'cannot-solve', reason: reply.reason, timings: { ...s.timings, solveMs: reply.timings.solveMs } });
+        return;
+      case 'invalid':
+        if (role === 'compile') {
+          this.compileBusy = null;
+          this.jobs.compile.delete(job.id);
+        } else this.solveDone(job);
+        if (current) this.set({ ...s, status: 'cannot-solve', reason: `the engine refused the document: ${reply.reason}`, warmupPending: false });
+        return;
+    }
+  }
+
+  private solveDone(job: Job): void {
+    this.jobs.solve.delete(job.id);
+    if (this.solveBusy?.id === job.id) this.solveBusy = null;
+  }
+}
