@@ -1,0 +1,84 @@
+'use client';
+
+import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import type { NodeReading } from '@/lib/editor/types';
+import { timeScale, voltScale } from '@/lib/editor/format';
+import { maxAbsVolts, waveformSeries } from './panel-model';
+
+/** Series colours: teal for the first result, copper for the second, then light slate tones. */
+export const SERIES_COLOURS = ['#2fa69b', '#e08a4c', '#c9d1d7', '#d8f1ef', '#fbe9dc', '#7d8b96'];
+
+const axisTick = { fill: '#c9d1d7', fontSize: 10 };
+
+/**
+ * One period of the steady state for the given nodes, overlaid, each with its mean as a dashed
+ * line; time in µs or ms, volts in V or kV as the values call for.
+ */
+export function WaveformPlot({ readings, periodS }: { readings: NodeReading[]; periodS: number }) {
+  const ts = timeScale(periodS);
+  const vs = voltScale(maxAbsVolts(readings));
+  const series = waveformSeries(readings, ts.factor, vs.factor);
+  if (series.length === 0) return <p className="text-xs text-ink-400">The solve sent no waveform for these nodes.</p>;
+  const fmtT = (x: number) => `${Number(x.toPrecision(3))}`;
+  const fmtV = (y: number) => `${Number(y.toPrecision(4))}`;
+  return (
+    <figure data-testid="waveform-plot" data-series={series.length} className="space-y-1">
+      <div className="h-48 w-full" role="img" aria-label={`One period of ${series.map((s) => s.label).join(', ')}, volts in ${vs.unit} against time in ${ts.unit}`}>
+        <ResponsiveContainer width="100%" height="100%">
+          <LineChart margin={{ top: 6, right: 10, bottom: 14, left: 4 }}>
+            <CartesianGrid stroke="#232c33" />
+            <XAxis
+              type="number"
+              dataKey="x"
+              domain={[0, periodS * ts.factor]}
+              tick={axisTick}
+              tickFormatter={fmtT}
+              stroke="#46545f"
+              label={{ value: `t (${ts.unit})`, position: 'insideBottom', offset: -8, fill: '#7d8b96', fontSize: 10 }}
+            />
+            <YAxis
+              type="number"
+              dataKey="y"
+              domain={['auto', 'auto']}
+              tick={axisTick}
+              tickFormatter={fmtV}
+              stroke="#46545f"
+              width={52}
+              label={{ value: vs.unit, angle: -90, position: 'insideLeft', fill: '#7d8b96', fontSize: 10 }}
+            />
+            <Tooltip
+              contentStyle={{ background: '#141a1f', border: '1px solid #46545f', fontSize: 11 }}
+              labelFormatter={(x) => `t = ${fmtT(Number(x))} ${ts.unit}`}
+              formatter={(y, name) => [`${fmtV(Number(y))} ${vs.unit}`, name]}
+            />
+            {series.map((s, i) => (
+              <ReferenceLine key={`${s.node}-mean`} y={s.mean} stroke={SERIES_COLOURS[i % SERIES_COLOURS.length]} strokeDasharray="4 3" strokeOpacity={0.7} ifOverflow="extendDomain" />
+            ))}
+            {series.map((s, i) => (
+              <Line
+                key={s.node}
+                data={s.points}
+                dataKey="y"
+                name={s.label}
+                type="linear"
+                dot={false}
+                isAnimationActive={false}
+                stroke={SERIES_COLOURS[i % SERIES_COLOURS.length]}
+                strokeWidth={1.5}
+              />
+            ))}
+          </LineChart>
+        </ResponsiveContainer>
+      </div>
+      <figcaption className="flex flex-wrap gap-x-3 gap-y-0.5 text-[11px] text-ink-200">
+        {series.map((s, i) => (
+          <span key={s.node} className="inline-flex items-center gap-1">
+            <span aria-hidden="true" className="inline-block h-0.5 w-3" style={{ background: SERIES_COLOURS[i % SERIES_COLOURS.length] }} />
+            {s.label}
+          </span>
+        ))}
+        <span className="text-ink-400">dashed: mean</span>
+      </figcaption>
+    </figure>
+  );
+}
