@@ -22,3 +22,4 @@ export * from './document/geometry';
 export * from './document/tray';
 export * from './document/connect';
 export * from './document/ladder-ops';
+export * from './document/from-netlist';
