@@ -9,8 +9,9 @@
  * - the compile worker is only ever given the latest document, one job at a time (compile and
  *   estimate take milliseconds, so it is always free for the next edit);
  * - the solve worker runs a synchronous solve and cannot be interrupted, so when a newer
- *   document arrives while it is busy (solve or warm-up) it is terminated and a fresh worker
- *   takes the new job.
+ *   document arrives while it is busy (solve or warm-up) it is terminated and a spare worker,
+ *   started in advance with the engine already loaded, takes the new job (a fresh spare is
+ *   started at once; loading the engine into a new worker costs far more than an estimate).
  * Jobs carry their own increasing ids, so late replies of an older job are never mistaken for
  * the current one even if the editor's version counter restarts.
  */
@@ -65,6 +66,8 @@ export class EngineController {
   private compileSent = 0;
   private solveWorker: EngineWorker | null = null;
   private solveBusy: Job | null = null;
+  /** A started, idle solve worker waiting to replace a terminated one. */
+  private spare: EngineWorker | null = null;
   /** Jobs already sent to each worker, by id (until their last reply). */
   private readonly jobs = { compile: new Map<number, Job>(), solve: new Map<number, Job>() };
   private disposed = false;
@@ -102,6 +105,9 @@ export class EngineController {
     this.noteVersion(version);
     this.latest = { id: this.nextId++, version, document };
     this.set({ ...this.snapshot, currentVersion: version, status: 'compiling', reason: undefined });
+    // Start the workers now, so that loading the engine overlaps the coalescing window.
+    this.compileWorker ??= this.spawn('compile');
+    this.solveWorker ??= this.spawn('solve');
     if (this.timer === null) this.timer = setTimeout(() => this.flush(), this.debounceMs);
   }
 
@@ -112,7 +118,8 @@ export class EngineController {
     this.timer = null;
     this.compileWorker?.terminate();
     this.solveWorker?.terminate();
-    this.compileWorker = this.solveWorker = null;
+    this.spare?.terminate();
+    this.compileWorker = this.solveWorker = this.spare = null;
     this.compileBusy = this.solveBusy = null;
     this.compileSent = 0;
     this.jobs.compile.clear();
@@ -151,12 +158,14 @@ export class EngineController {
     if (this.solveBusy) {
       // The solver cannot be interrupted: drop that worker with its solve and start afresh.
       this.solveWorker?.terminate();
-      this.solveWorker = null;
+      this.solveWorker = this.spare;
+      this.spare = null;
       this.jobs.solve.delete(this.solveBusy.id);
       this.solveBusy = null;
       if (this.snapshot.warmupPending) this.set({ ...this.snapshot, warmupPending: false });
     }
     const worker = (this.solveWorker ??= this.spawn('solve'));
+    this.spare ??= this.spawn('solve');
     this.solveBusy = job;
     this.jobs.solve.set(job.id, job);
     worker.postMessage({ type: 'solve', version: job.id, document: job.document, warmup: this.warmup });
@@ -168,7 +177,11 @@ export class EngineController {
       if (worker === (role === 'compile' ? this.compileWorker : this.solveWorker)) this.receive(role, event.data);
     };
     worker.onerror = (event) => {
-      if (worker === (role === 'compile' ? this.compileWorker : this.solveWorker)) this.fail(role, `the engine worker stopped: ${event.message ?? 'script error'}`);
+      if (worker === this.spare) {
+        // A spare that failed to start is replaced when it is next needed.
+        worker.terminate();
+        this.spare = null;
+      } else if (worker === (role === 'compile' ? this.compileWorker : this.solveWorker)) this.fail(role, `the engine worker stopped: ${event.message ?? 'script error'}`);
     };
     return worker;
   }

@@ -36,7 +36,8 @@ describe('engine controller scheduling', () => {
   let workers: FakeWorker[] = [];
   let controller: EngineController;
   const of = (role: 'compile' | 'solve') => workers.filter((w) => w.role === role);
-  const live = (role: 'compile' | 'solve') => of(role).filter((w) => !w.terminated).at(-1) as FakeWorker;
+  /** The worker that holds the role's current job (a spare solve worker has no messages yet). */
+  const live = (role: 'compile' | 'solve') => of(role).filter((w) => !w.terminated && w.sent.length > 0).at(-1) as FakeWorker;
 
   beforeEach(() => {
     vi.useFakeTimers();
@@ -60,10 +61,15 @@ describe('engine controller scheduling', () => {
     const docs = [1, 2, 3].map((n) => halfWaveStarter(n, O));
     docs.forEach((d, i) => controller.update(d, i + 1));
     expect(controller.getSnapshot()).toMatchObject({ status: 'compiling', currentVersion: 3 });
-    expect(workers).toEqual([]);
+    // Workers start at the first edit, so loading the engine overlaps the coalescing window.
+    expect(workers.map((w) => [w.role, w.sent.length])).toEqual([
+      ['compile', 0],
+      ['solve', 0],
+    ]);
     vi.advanceTimersByTime(12);
     expect(of('compile')).toHaveLength(1);
-    expect(of('solve')).toHaveLength(1);
+    // The solve worker took the job; a spare stands by.
+    expect(of('solve').map((w) => w.sent.length)).toEqual([1, 0]);
     expect(live('compile').sent).toHaveLength(1);
     expect(live('compile').sent[0]).toMatchObject({ type: 'compile', document: docs[2] });
     expect(live('solve').sent[0]).toMatchObject({ type: 'solve', document: docs[2], warmup: true });
@@ -99,6 +105,10 @@ describe('engine controller scheduling', () => {
     expect(first.terminated).toBe(true);
     const second = live('solve');
     expect(second).not.toBe(first);
+    // The spare started with the first job took the new one, and a new spare was started.
+    expect(second).toBe(of('solve')[1]);
+    expect(of('solve')).toHaveLength(3);
+    expect(of('solve')[2].sent).toEqual([]);
     expect(second.sent[0]).toMatchObject({ type: 'solve', document: doc2 });
     // The compile worker is not restarted: it was idle and takes the new job.
     expect(of('compile')).toHaveLength(1);
