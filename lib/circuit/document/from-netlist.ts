@@ -137,6 +137,12 @@ function diodeParams(netlist: Netlist, d: DiodeElement): { params: DiodeModelPar
   return { params, dropped };
 }
 
+/** One warning per diode model (repeated diodes give the same text, and warnings are de-duplicated). */
+function droppedWarning(model: string, dropped: string[]): string {
+  const many = dropped.length > 1;
+  return `Diode model ${model}: parameter${many ? 's' : ''} ${dropped.join(', ')} ${many ? 'are' : 'is'} not kept on the canvas; the SPICE default${many ? 's are' : ' is'} used.`;
+}
+
 /**
  * Lay a netlist out as a canvas document. Fails (with a reason) when the netlist cannot be
  * solved as written (no ground, a shorted source, a non-positive value, a part cut off from
@@ -203,7 +209,7 @@ export function documentFromNetlist(netlist: Netlist): NetlistImport {
         if (sourceOf.has(d.v.name)) return;
         const id = lay.id('src', true);
         lay.add(
-          { id, kind: 'acSource', position: { x: 0, y: placeSourceAt + i * 140 }, label: i === 0 ? 'Drive' : 'Antiphase drive', data: { variant: 'single', amplitudeV: d.amplitudeV, amplitudeMode: 'peak', frequencyHz: d.frequencyHz, phaseDeg: d.phaseDeg, sourceResistanceOhm: d.sourceResistanceOhm } },
+          { id, kind: 'acSource', position: { x: 0, y: placeSourceAt - i * 140 }, label: i === 0 ? 'Drive' : 'Antiphase drive', data: { variant: 'single', amplitudeV: d.amplitudeV, amplitudeMode: 'peak', frequencyHz: d.frequencyHz, phaseDeg: d.phaseDeg, sourceResistanceOhm: d.sourceResistanceOhm } },
           { hot: d.hot, ret: GROUND },
         );
         sourceOf.set(d.v.name, { id, port: 'hot' });
@@ -268,7 +274,7 @@ export function documentFromNetlist(netlist: Netlist): NetlistImport {
         break;
       case 'D': {
         const p = diodeParams(netlist, el) as { params: DiodeModelParams; dropped: string[] };
-        if (p.dropped.length > 0) warnings.push(`${el.name}: model ${el.model} parameter${p.dropped.length > 1 ? 's' : ''} ${p.dropped.join(', ')} ${p.dropped.length > 1 ? 'are' : 'is'} not kept on the canvas; the SPICE default is used.`);
+        if (p.dropped.length > 0) warnings.push(droppedWarning(el.model, p.dropped));
         lay.add({ id: lay.id('d'), kind: 'diode', position: nextSlot(), label: el.name.slice(0, 80), data: { model: p.params } }, { anode: a, cathode: b });
         break;
       }
@@ -310,7 +316,7 @@ export function documentFromNetlist(netlist: Netlist): NetlistImport {
     const issue = checked.error.issues[0];
     return { ok: false, reason: `The laid-out design is not valid: ${issue.path.join('.')}: ${issue.message}.` };
   }
-  return { ok: true, document: doc, warnings, nodes };
+  return { ok: true, document: doc, warnings: [...new Set(warnings)], nodes };
 }
 
 /** A recognised ladder that can be drawn as stage blocks: its stages' values, drives and consumed elements. */
@@ -369,7 +375,7 @@ function planLadder(
     if (el.nodes[0] !== an || el.nodes[1] !== ca) return null;
     const p = diodeParams(netlist, el);
     if (!p) return null;
-    if (p.dropped.length > 0) warnings.push(`${el.name}: model ${el.model} parameter${p.dropped.length > 1 ? 's' : ''} ${p.dropped.join(', ')} ${p.dropped.length > 1 ? 'are' : 'is'} not kept on the canvas; the SPICE default is used.`);
+    if (p.dropped.length > 0) warnings.push(droppedWarning(el.model, p.dropped));
     consumed.push(el.name);
     return { model: p.params };
   };

@@ -8,6 +8,7 @@ import { solveNetlist } from '@/lib/circuit/analysis/solve';
 import { recognizeTopology, type TopologyReport } from '@/lib/circuit/compile/topology';
 import { starterDocument } from '@/lib/circuit/document/ladder-ops';
 import { designDocumentSchema, type DesignBlock, type DesignDocument } from '@/lib/circuit/document/schema';
+import { blockSize } from '@/lib/circuit/document/geometry';
 import type { Netlist, NetlistElement } from '@/lib/circuit/netlist/types';
 
 type Imported = Extract<NetlistImport, { ok: true }>;
@@ -41,13 +42,13 @@ function compiledNode(netlist: Netlist, port: { blockId: string; port: string })
 
 /**
  * The import solves to the same circuit: every node of the original netlist has the same mean
- * (within 1e-6 of the largest node voltage, the solver's own period-to-period tolerance) in a
- * solve of the imported design's compiled netlist.
+ * (within `relTol`, default 1e-6, of the largest node voltage: the solver's own period-to-period
+ * tolerance) in a solve of the imported design's compiled netlist.
  */
-function expectSameSolve(original: Netlist, r: Imported): void {
+function expectSameSolve(original: Netlist, r: Imported, relTol = 1e-6): void {
   const back = compiled(r.document).netlist;
-  const a = solveNetlist(original, { waveformPoints: 0 });
-  const b = solveNetlist(back, { waveformPoints: 0 });
+  const a = solveNetlist(original, { waveformPoints: 0, tolerance: 1e-8 });
+  const b = solveNetlist(back, { waveformPoints: 0, tolerance: 1e-8 });
   if (!a.ok || !b.ok) throw new Error(`solve failed: ${a.ok ? '' : a.reason} ${b.ok ? '' : b.reason}`);
   const scale = Math.max(...Object.values(a.nodes).map((m) => Math.abs(m.mean)));
   expect(scale).toBeGreaterThan(0);
@@ -57,7 +58,7 @@ function expectSameSolve(original: Netlist, r: Imported): void {
     const theirs = a.nodes[node];
     const ours = b.nodes[compiledNode(back, port)];
     expect(theirs, node).toBeDefined();
-    expect(Math.abs(ours.mean - theirs.mean), `${node}: ${ours.mean} vs ${theirs.mean}`).toBeLessThanOrEqual(1e-6 * scale);
+    expect(Math.abs(ours.mean - theirs.mean), `${node}: ${ours.mean} vs ${theirs.mean}`).toBeLessThanOrEqual(relTol * scale);
     compared++;
   }
   expect(compared).toBeGreaterThan(3);
@@ -181,6 +182,64 @@ describe('documentFromNetlist: generated ladders solve the same after import', (
   });
 });
 
+describe('documentFromNetlist: layout', () => {
+  function overlaps(doc: DesignDocument): string[] {
+    const out: string[] = [];
+    const box = (b: DesignBlock) => ({ ...b.position, ...blockSize(b) });
+    doc.blocks.forEach((a, i) =>
+      doc.blocks.slice(i + 1).forEach((b) => {
+        const p = box(a);
+        const q = box(b);
+        if (p.x < q.x + q.width && q.x < p.x + p.width && p.y < q.y + q.height && q.y < p.y + p.height) out.push(`${a.id}/${b.id}`);
+      }),
+    );
+    return out;
+  }
+
+  it('places ladders like the starters and nothing on top of anything else', () => {
+    for (const o of [
+      small({ kind: 'half-wave', stages: 3, loadCurrentA: 1e-4, strayPumpF: 1e-12 }),
+      small({ kind: 'full-wave', loadResistanceOhm: 1e8 }),
+      small({ kind: 'bipolar', stages: 3, loadResistanceOhm: 1e8, loadCurrentA: 1e-5 }),
+    ]) {
+      const r = imported(generateLadder(o));
+      expect(overlaps(r.document), o.kind).toEqual([]);
+      const stages = r.document.blocks.filter((b) => b.kind === 'stage');
+      expect(stages[0].position.x).toBe(200);
+      if (o.kind === 'bipolar') expect([...new Set(stages.map((b) => b.position.y))]).toEqual([-40, 380]);
+      else expect(stages.every((b) => b.position.y === 120)).toBe(true);
+    }
+  });
+
+  it('full-wave drives that do not match become two single drives, and still solve the same', () => {
+    const nl = generateLadder(small({ kind: 'full-wave', loadCurrentA: 1e-4 }));
+    const v2 = nl.elements.find((e) => e.name === 'V2');
+    if (!v2 || v2.kind !== 'V' || !v2.sine) throw new Error('no V2');
+    v2.sine = { ...v2.sine, amplitude: 900 };
+    const r = imported(nl);
+    const drives = r.document.blocks.filter((b): b is Extract<DesignBlock, { kind: 'acSource' }> => b.kind === 'acSource');
+    expect(drives.map((d) => [d.data.variant, d.data.amplitudeV, d.data.phaseDeg])).toEqual([
+      ['single', 1000, 0],
+      ['single', 900, 180],
+    ]);
+    expect(overlaps(r.document)).toEqual([]);
+    const back = compiled(r.document);
+    expect(back.topology.kind).toBe('full-wave');
+    expect(signature(back.netlist)).toEqual(signature(nl));
+    // With unequal drives the second driven column's mean is weakly held: solving the original
+    // netlist with its element cards in reverse order already moves pb1 by 0.14 V (3.5e-5 of the
+    // 4 kV output; measured), so this one case is compared at 1e-4. The elements are the same
+    // (signature above) and the outputs agree to about 1e-12.
+    expectSameSolve(nl, r, 1e-4);
+  });
+
+  it('warns once per diode model, not once per diode', () => {
+    const nl = generateLadder(small({ kind: 'half-wave', stages: 3, diode: { cjoF: 2e-12, m: 0.33 } }));
+    const r = imported(nl);
+    expect(r.warnings).toEqual(['Diode model DRECT: parameter M is not kept on the canvas; the SPICE default is used.']);
+  });
+});
+
 describe('documentFromNetlist: document → netlist → document is stable', () => {
   const docs: Array<[string, DesignDocument]> = [
     ['half-wave', starterDocument('half-wave', 3)],
@@ -258,7 +317,7 @@ describe('documentFromNetlist: what it cannot lay out', () => {
     const r = documentFromNetlist(nl);
     if (!r.ok) throw new Error(r.reason);
     const text = r.warnings.join('\n');
-    expect(text).toMatch(/D1: model DJ parameter VJ is not kept/);
+    expect(text).toMatch(/Diode model DJ: parameter VJ is not kept on the canvas/);
     expect(text).toMatch(/C1: the initial condition IC=3 V is not kept/);
     expect(text).toMatch(/I1: the sine part of the current source is not kept/);
     // The 10 V offset of V1 stays exact: a DC source in series with the sine drive.
