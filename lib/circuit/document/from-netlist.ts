@@ -242,14 +242,21 @@ export function documentFromNetlist(netlist: Netlist): NetlistImport {
 
   // Loads at the outputs of drawn ladders, beside the top stage.
   const expected = new Map(topo.ladders.map((l) => [l.outputNode, (l.polarity === 'positive' ? 1 : -1) * 2 * l.stages * l.drivePeakV] as const));
+  // A symmetric pair's loads share one spot between the ladders, so they queue along one row.
+  let shared = 0;
   drawn.forEach((plan, li) => {
     const l = plan.ladder;
-    plan.ladder.loadElements.forEach((name, j) => {
-      if (consumed.has(name)) return;
+    let own = 0;
+    for (const name of l.loadElements) {
+      if (consumed.has(name)) continue;
       const el = byName.get(name) as NetlistElement;
+      const j = symmetric ? shared : own;
       const at = { x: LAYOUT.firstStageX + l.stages * STAGE_WIDTH + j * LAYOUT.loadPitch, y: symmetric ? LAYOUT.symmetricLoadY : ladderYs[li] + LAYOUT.loadDy };
-      if (placeLoad(lay, el, at, expected, warnings)) consumed.add(name);
-    });
+      if (!placeLoad(lay, el, at, expected, warnings)) continue;
+      consumed.add(name);
+      if (symmetric) shared++;
+      else own++;
+    }
   });
 
   // Everything else: single parts and sources in rows below the drawing.

@@ -211,6 +211,17 @@ describe('documentFromNetlist: layout', () => {
     }
   });
 
+  it('a compiled design with a bleeder on each output lays its loads side by side', () => {
+    for (const kind of ['half-wave', 'symmetric'] as const) {
+      const doc = starterDocument(kind, 2);
+      doc.settings = { ...doc.settings, bleederOhm: 1e9 };
+      const r = imported(reparsed(compiled(doc).netlist));
+      expect(r.document.blocks.filter((b) => b.kind === 'load')).toHaveLength(kind === 'symmetric' ? 3 : 2);
+      expect(overlaps(r.document), kind).toEqual([]);
+      expect(signature(compiled(r.document).netlist)).toEqual(signature(compiled(doc).netlist));
+    }
+  });
+
   it('full-wave drives that do not match become two single drives, and still solve the same', () => {
     const nl = generateLadder(small({ kind: 'full-wave', loadCurrentA: 1e-4 }));
     const v2 = nl.elements.find((e) => e.name === 'V2');
