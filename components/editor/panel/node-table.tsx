@@ -25,7 +25,7 @@ export function NodeTable({ rows, selected, onSelect, stale }: { rows: NodeRow[]
         <caption className="sr-only">Node voltages to ground; sort by a column header, select nodes to plot</caption>
         <thead className="sticky top-0 bg-ink-800 text-ink-200">
           <tr>
-            <th scope="col" className="w-6 px-1 py-1">
+            <th scope="col" className="w-5 px-0.5 py-1">
               <span className="sr-only">Plot</span>
             </th>
             {COLUMNS.map((c) => (
@@ -33,7 +33,7 @@ export function NodeTable({ rows, selected, onSelect, stale }: { rows: NodeRow[]
                 key={c.key}
                 scope="col"
                 aria-sort={sort.key === c.key ? (sort.dir === 'asc' ? 'ascending' : 'descending') : 'none'}
-                className={`px-1.5 py-1 font-medium ${c.numeric ? 'text-right' : 'text-left'}`}
+                className={`whitespace-nowrap px-1 py-1 font-medium ${c.numeric ? 'text-right' : 'text-left'}`}
               >
                 <button
                   type="button"
@@ -67,7 +67,7 @@ export function NodeTable({ rows, selected, onSelect, stale }: { rows: NodeRow[]
                 aria-selected={on}
                 className={`border-t border-ink-800 ${on ? 'bg-lagoon-800/40' : 'hover:bg-ink-800/60'}`}
               >
-                <td className="px-1 text-center">
+                <td className="px-0.5 text-center">
                   <input
                     type="checkbox"
                     checked={on}
@@ -76,18 +76,18 @@ export function NodeTable({ rows, selected, onSelect, stale }: { rows: NodeRow[]
                     className="accent-lagoon-400"
                   />
                 </td>
-                <td className="max-w-0 px-1.5 py-0.5">
+                <td className="min-w-[6rem] px-1 py-0.5 text-[11px]">
                   <button
                     type="button"
                     onClick={(e) => onSelect(toggleNodeSelection(selected, r.node, e.ctrlKey || e.metaKey || e.shiftKey))}
-                    className="block w-full truncate rounded text-left text-ink-100 hover:text-lagoon-100"
+                    className="block w-full rounded text-left leading-tight text-ink-100 hover:text-lagoon-100"
                     title={`${r.label} (${r.node})`}
                   >
                     {r.label}
                   </button>
                 </td>
                 {(['meanV', 'rippleV', 'minV', 'maxV'] as const).map((k) => (
-                  <td key={k} className={`whitespace-nowrap px-1.5 py-0.5 text-right font-mono ${k === 'meanV' ? 'text-lagoon-100' : 'text-ink-100'}`}>
+                  <td key={k} className={`whitespace-nowrap py-0.5 pl-1 pr-1 text-right font-mono text-[11px] tracking-tight ${k === 'meanV' ? 'text-lagoon-100' : 'text-ink-100'}`}>
                     {formatReading(r[k], 'V')}
                   </td>
                 ))}

@@ -400,3 +400,56 @@ export function warmupPlot(warmup: SolveView['warmup'], voltFactor: number, maxP
 export function readingText(r: Pick<NodeReading, 'meanV' | 'rippleV' | 'minV' | 'maxV'>): { mean: string; ripple: string; min: string; max: string } {
   return { mean: formatReading(r.meanV, 'V'), ripple: formatReading(r.rippleV, 'V'), min: formatReading(r.minV, 'V'), max: formatReading(r.maxV, 'V') };
 }
+
+/** Axis ticks: the padded domain, the tick values and the decimals that tell neighbouring ticks apart. */
+export interface AxisTicks {
+  domain: [number, number];
+  ticks: number[];
+  decimals: number;
+}
+
+function niceStep(rough: number): number {
+  const exp = Math.floor(Math.log10(rough));
+  const base = 10 ** exp;
+  const f = rough / base;
+  return (f <= 1 ? 1 : f <= 2 ? 2 : f <= 2.5 ? 2.5 : f <= 5 ? 5 : 10) * base;
+}
+
+/**
+ * "Nice numbers" axis ticks (Heckbert, "Nice numbers for graph labels", Graphics Gems, 1990,
+ * from memory): a step of 1, 2, 2.5 or 5 × 10^k giving about `count` intervals over [lo, hi],
+ * the domain widened to whole steps, and enough decimals that a ripple of a few volts on a
+ * 60 kV level (59.962, 59.964 … kV) does not print as one repeated label. A flat signal gets a
+ * small band around its value.
+ */
+export function niceTicks(lo: number, hi: number, count = 5): AxisTicks {
+  if (!Number.isFinite(lo) || !Number.isFinite(hi)) return { domain: [0, 1], ticks: [0, 1], decimals: 0 };
+  if (hi < lo) [lo, hi] = [hi, lo];
+  if (hi - lo <= Math.abs(hi) * 1e-12 || hi === lo) {
+    const pad = Math.abs(hi) > 0 ? Math.abs(hi) * 1e-3 : 1;
+    lo -= pad;
+    hi += pad;
+  }
+  const step = niceStep((hi - lo) / Math.max(1, count));
+  const start = Math.floor(lo / step) * step;
+  const end = Math.ceil(hi / step) * step;
+  const decimals = Math.max(0, -Math.floor(Math.log10(step) + 1e-9) + (step / 10 ** Math.floor(Math.log10(step) + 1e-9) === 2.5 ? 1 : 0));
+  const ticks: number[] = [];
+  for (let i = 0; start + i * step <= end + step * 1e-9; i++) ticks.push(Number((start + i * step).toFixed(Math.min(20, decimals))));
+  return { domain: [ticks[0], ticks[ticks.length - 1]], ticks, decimals };
+}
+
+/** Lowest and highest y over the plotted series and their means. */
+export function seriesRange(series: readonly PlotSeries[]): [number, number] {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const s of series) {
+    lo = Math.min(lo, s.mean);
+    hi = Math.max(hi, s.mean);
+    for (const p of s.points) {
+      if (p.y < lo) lo = p.y;
+      if (p.y > hi) hi = p.y;
+    }
+  }
+  return [lo, hi];
+}

@@ -15,7 +15,7 @@ export function PartStressCard({ stresses, title }: { stresses: PartStress[]; ti
       aria-live="polite"
       data-testid="part-stress-card"
       data-worst={worst}
-      className={`pointer-events-none w-72 rounded-md border bg-ink-900/95 px-3 py-2 text-xs shadow-lg shadow-black/40 ${
+      className={`pointer-events-none w-80 rounded-md border bg-ink-900/95 px-3 py-2 text-xs shadow-lg shadow-black/40 ${
         worst === 'over' ? 'border-hazard-500' : worst === 'tight' ? 'border-copper-600' : 'border-lagoon-600'
       }`}
     >
@@ -34,11 +34,11 @@ export function PartStressCard({ stresses, title }: { stresses: PartStress[]; ti
                   const st = checkStatus(c);
                   return (
                     <tr key={c.quantity} className={CHECK_TONE[st]}>
-                      <td className="pr-2 text-ink-400">{quantityLabel(c.quantity)}</td>
-                      <td className="text-right font-mono">{formatReading(c.actual, c.unit, 3)}</td>
+                      <td className="pr-2 leading-tight text-ink-400">{quantityLabel(c.quantity)}</td>
+                      <td className="whitespace-nowrap text-right font-mono">{formatReading(c.actual, c.unit, 3)}</td>
                       <td className="px-1 text-center text-ink-400">/</td>
-                      <td className="text-right font-mono text-ink-200">{c.allowed !== undefined ? formatReading(c.allowed, c.unit, 3) : '—'}</td>
-                      <td className="pl-2 text-right font-mono" title={CHECK_WORD[st]}>
+                      <td className="whitespace-nowrap text-right font-mono text-ink-200">{c.allowed !== undefined ? formatReading(c.allowed, c.unit, 3) : '—'}</td>
+                      <td className="whitespace-nowrap pl-2 text-right font-mono" title={CHECK_WORD[st]}>
                         {c.margin !== undefined ? formatPercent(c.margin, 2) : CHECK_WORD[st]}
                         {st === 'over' ? ' ✕' : st === 'tight' ? ' !' : ''}
                       </td>

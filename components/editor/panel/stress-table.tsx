@@ -1,6 +1,6 @@
 'use client';
 
-import { useState } from 'react';
+import { Fragment, useState } from 'react';
 import type { PartStress } from '@/lib/editor/types';
 import { formatPercent, formatReading } from '@/lib/editor/format';
 import { stressCounts, stressRows } from './panel-model';
@@ -30,9 +30,8 @@ export function StressTable({ parts, onFocusBlock, stale }: { parts: PartStress[
       <div className="max-h-72 overflow-auto rounded border border-ink-800">
         <table data-testid="stress-table" data-stale={stale ? 'true' : 'false'} className={`w-full border-collapse text-xs ${stale ? 'opacity-70' : ''}`}>
           <caption className="sr-only">Part stress against rating and derated limit</caption>
-          <thead className="sticky top-0 bg-ink-800 text-ink-200">
+          <thead className="sticky top-0 z-10 bg-ink-800 text-ink-200">
             <tr>
-              <th scope="col" className="px-1.5 py-1 text-left font-medium">Part</th>
               <th scope="col" className="px-1.5 py-1 text-left font-medium">Quantity</th>
               <th scope="col" className="px-1.5 py-1 text-right font-medium">Actual</th>
               <th scope="col" className="px-1.5 py-1 text-right font-medium">Rating</th>
@@ -43,41 +42,41 @@ export function StressTable({ parts, onFocusBlock, stale }: { parts: PartStress[
           <tbody>
             {rows.length === 0 ? (
               <tr>
-                <td colSpan={6} className="px-2 py-2 text-ink-400">
+                <td colSpan={5} className="px-2 py-2 text-ink-400">
                   No part stress yet.
                 </td>
               </tr>
             ) : null}
             {rows.map((r) => (
-              <tr
-                key={r.key}
-                data-status={r.status}
-                data-block-id={r.blockId}
-                className={`${r.firstOfPart ? 'border-t border-ink-800' : ''} ${r.status === 'over' ? 'bg-hazard-700/25' : r.status === 'tight' ? 'bg-copper-800/25' : ''}`}
-              >
-                <td className="max-w-0 px-1.5 py-0.5">
-                  {r.firstOfPart ? (
-                    <button
-                      type="button"
-                      onClick={() => onFocusBlock(r.blockId)}
-                      className="block w-full truncate rounded text-left text-ink-100 hover:text-copper-100"
-                      title={`Show ${r.partLabel} (${r.element}) on the canvas`}
-                    >
-                      {r.partLabel}
-                    </button>
-                  ) : (
-                    <span className="sr-only">{r.partLabel}</span>
-                  )}
-                </td>
-                <td className="whitespace-nowrap px-1.5 py-0.5 text-ink-400">{r.quantity}</td>
-                <td className="whitespace-nowrap px-1.5 py-0.5 text-right font-mono text-ink-100">{formatReading(r.actual, r.unit, 3)}</td>
-                <td className="whitespace-nowrap px-1.5 py-0.5 text-right font-mono text-ink-200">{formatReading(r.rating, r.unit, 3)}</td>
-                <td className="whitespace-nowrap px-1.5 py-0.5 text-right font-mono text-ink-200">{formatReading(r.allowed, r.unit, 3)}</td>
-                <td className={`whitespace-nowrap px-1.5 py-0.5 text-right font-mono ${CHECK_TONE[r.status]}`}>
-                  {r.margin !== null ? formatPercent(r.margin, 2) : CHECK_WORD[r.status]}
-                  {r.status === 'over' || r.status === 'tight' ? <span className="ml-1 font-sans text-[10px] uppercase">{CHECK_WORD[r.status]}</span> : null}
-                </td>
-              </tr>
+              <Fragment key={r.key}>
+                {r.firstOfPart ? (
+                  <tr className="border-t border-ink-800 bg-ink-900">
+                    <th scope="rowgroup" colSpan={5} className="px-1.5 pt-1 text-left font-medium">
+                      <button
+                        type="button"
+                        onClick={() => onFocusBlock(r.blockId)}
+                        className="rounded text-ink-100 hover:text-copper-100"
+                        title="Show this part on the canvas"
+                        data-testid="stress-part"
+                        data-block-id={r.blockId}
+                      >
+                        {r.partLabel}
+                      </button>
+                      <span className="ml-2 font-mono text-[10px] font-normal text-ink-400">{r.element}</span>
+                    </th>
+                  </tr>
+                ) : null}
+                <tr data-status={r.status} data-block-id={r.blockId} className={r.status === 'over' ? 'bg-hazard-700/25' : r.status === 'tight' ? 'bg-copper-800/25' : ''}>
+                  <td className="px-1.5 py-0.5 pl-3 leading-tight text-ink-400">{r.quantity}</td>
+                  <td className="whitespace-nowrap px-1.5 py-0.5 text-right font-mono text-ink-100">{formatReading(r.actual, r.unit, 3)}</td>
+                  <td className="whitespace-nowrap px-1.5 py-0.5 text-right font-mono text-ink-200">{formatReading(r.rating, r.unit, 3)}</td>
+                  <td className="whitespace-nowrap px-1.5 py-0.5 text-right font-mono text-ink-200">{formatReading(r.allowed, r.unit, 3)}</td>
+                  <td className={`whitespace-nowrap px-1.5 py-0.5 text-right font-mono ${CHECK_TONE[r.status]}`}>
+                    {r.margin !== null ? formatPercent(r.margin, 2) : CHECK_WORD[r.status]}
+                    {r.status === 'over' || r.status === 'tight' ? <span className="block font-sans text-[9px] uppercase leading-none">{CHECK_WORD[r.status]}</span> : null}
+                  </td>
+                </tr>
+              </Fragment>
             ))}
           </tbody>
         </table>

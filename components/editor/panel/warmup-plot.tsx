@@ -3,7 +3,7 @@
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { SolveView } from '@/lib/editor/types';
 import { formatReading, voltScale } from '@/lib/editor/format';
-import { warmupPlot } from './panel-model';
+import { niceTicks, warmupPlot } from './panel-model';
 
 const axisTick = { fill: '#c9d1d7', fontSize: 10 };
 
@@ -16,7 +16,8 @@ export function WarmupPlot({ warmup, outputLabel }: { warmup: NonNullable<SolveV
   const vs = voltScale(Math.max(...warmup.curve.meanV.map(Math.abs), Math.abs(last)));
   const plot = warmupPlot(warmup, vs.factor);
   if (!plot) return <p className="text-xs text-ink-400">The warm-up run sent too few points to draw.</p>;
-  const fmtV = (y: number) => `${Number(y.toPrecision(4))}`;
+  const y = niceTicks(Math.min(0, ...plot.points.map((p) => p.v)), Math.max(plot.final, ...plot.points.map((p) => p.v)), 4);
+  const fmtV = (v: number) => v.toFixed(y.decimals);
   return (
     <figure data-testid="warmup-plot" className="space-y-1">
       <div className="h-44 w-full" role="img" aria-label={`${outputLabel} from power-on, ${vs.unit} against cycles; 90 % reached after ${plot.cycles90 ?? 'unknown'} cycles`}>
@@ -33,7 +34,8 @@ export function WarmupPlot({ warmup, outputLabel }: { warmup: NonNullable<SolveV
             />
             <YAxis
               type="number"
-              domain={['auto', 'auto']}
+              domain={y.domain}
+              ticks={y.ticks}
               tick={axisTick}
               tickFormatter={fmtV}
               stroke="#46545f"
@@ -43,7 +45,7 @@ export function WarmupPlot({ warmup, outputLabel }: { warmup: NonNullable<SolveV
             <Tooltip
               contentStyle={{ background: '#141a1f', border: '1px solid #46545f', fontSize: 11 }}
               labelFormatter={(c) => `cycle ${Number(Number(c).toPrecision(4))}`}
-              formatter={(y) => [`${fmtV(Number(y))} ${vs.unit}`, outputLabel]}
+              formatter={(v) => [`${Number(Number(v).toPrecision(4))} ${vs.unit}`, outputLabel]}
             />
             <ReferenceLine y={plot.level90} stroke="#e08a4c" strokeDasharray="4 3" label={{ value: '90 %', position: 'insideTopLeft', fill: '#e08a4c', fontSize: 10 }} />
             {plot.cycles90 !== null ? (

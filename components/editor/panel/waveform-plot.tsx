@@ -3,7 +3,7 @@
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { NodeReading } from '@/lib/editor/types';
 import { timeScale, voltScale } from '@/lib/editor/format';
-import { maxAbsVolts, waveformSeries } from './panel-model';
+import { maxAbsVolts, niceTicks, seriesRange, waveformSeries } from './panel-model';
 
 /** Series colours: teal for the first result, copper for the second, then light slate tones. */
 export const SERIES_COLOURS = ['#2fa69b', '#e08a4c', '#c9d1d7', '#d8f1ef', '#fbe9dc', '#7d8b96'];
@@ -19,8 +19,12 @@ export function WaveformPlot({ readings, periodS }: { readings: NodeReading[]; p
   const vs = voltScale(maxAbsVolts(readings));
   const series = waveformSeries(readings, ts.factor, vs.factor);
   if (series.length === 0) return <p className="text-xs text-ink-400">The solve sent no waveform for these nodes.</p>;
-  const fmtT = (x: number) => `${Number(x.toPrecision(3))}`;
-  const fmtV = (y: number) => `${Number(y.toPrecision(4))}`;
+  const [lo, hi] = seriesRange(series);
+  const y = niceTicks(lo, hi, 4);
+  const x = niceTicks(0, periodS * ts.factor, 5);
+  const fmtT = (v: number) => `${Number(v.toPrecision(3))}`;
+  const fmtV = (v: number) => v.toFixed(y.decimals);
+  const fmtTip = (v: number) => v.toFixed(y.decimals + 1);
   return (
     <figure data-testid="waveform-plot" data-series={series.length} className="space-y-1">
       <div className="h-48 w-full" role="img" aria-label={`One period of ${series.map((s) => s.label).join(', ')}, volts in ${vs.unit} against time in ${ts.unit}`}>
@@ -31,6 +35,8 @@ export function WaveformPlot({ readings, periodS }: { readings: NodeReading[]; p
               type="number"
               dataKey="x"
               domain={[0, periodS * ts.factor]}
+              ticks={x.ticks.filter((t) => t <= periodS * ts.factor * (1 + 1e-9))}
+              allowDataOverflow
               tick={axisTick}
               tickFormatter={fmtT}
               stroke="#46545f"
@@ -39,20 +45,21 @@ export function WaveformPlot({ readings, periodS }: { readings: NodeReading[]; p
             <YAxis
               type="number"
               dataKey="y"
-              domain={['auto', 'auto']}
+              domain={y.domain}
+              ticks={y.ticks}
               tick={axisTick}
               tickFormatter={fmtV}
               stroke="#46545f"
-              width={52}
+              width={y.decimals > 2 ? 64 : 52}
               label={{ value: vs.unit, angle: -90, position: 'insideLeft', fill: '#7d8b96', fontSize: 10 }}
             />
             <Tooltip
               contentStyle={{ background: '#141a1f', border: '1px solid #46545f', fontSize: 11 }}
-              labelFormatter={(x) => `t = ${fmtT(Number(x))} ${ts.unit}`}
-              formatter={(y, name) => [`${fmtV(Number(y))} ${vs.unit}`, name]}
+              labelFormatter={(t) => `t = ${fmtT(Number(t))} ${ts.unit}`}
+              formatter={(v, name) => [`${fmtTip(Number(v))} ${vs.unit}`, name]}
             />
             {series.map((s, i) => (
-              <ReferenceLine key={`${s.node}-mean`} y={s.mean} stroke={SERIES_COLOURS[i % SERIES_COLOURS.length]} strokeDasharray="4 3" strokeOpacity={0.7} ifOverflow="extendDomain" />
+              <ReferenceLine key={`${s.node}-mean`} y={s.mean} stroke={SERIES_COLOURS[i % SERIES_COLOURS.length]} strokeDasharray="4 3" strokeOpacity={0.7} />
             ))}
             {series.map((s, i) => (
               <Line

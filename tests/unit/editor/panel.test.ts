@@ -10,6 +10,7 @@ import {
   compareRows,
   decimateMinMax,
   nextSort,
+  niceTicks,
   nodeRows,
   solvedMaxPivV,
   solvedOutput,
@@ -236,5 +237,30 @@ describe('plots', () => {
     expect(before.every((p) => p.v < w.level90)).toBe(true);
     expect(after.some((p) => p.v >= w.level90)).toBe(true);
     expect(warmupPlot(undefined, 1)).toBeNull();
+  });
+});
+
+describe('niceTicks', () => {
+  it('steps by 1, 2, 2.5 or 5 × 10^k and covers the range', () => {
+    expect(niceTicks(0, 60, 4)).toEqual({ domain: [0, 60], ticks: [0, 20, 40, 60], decimals: 0 });
+    expect(niceTicks(0.3, 9.7, 5).ticks).toEqual([0, 2, 4, 6, 8, 10]);
+    const t = niceTicks(-10, 10, 4);
+    expect(t.ticks).toEqual([-10, -5, 0, 5, 10]);
+    expect(niceTicks(0, 1, 4)).toMatchObject({ ticks: [0, 0.25, 0.5, 0.75, 1], decimals: 2 });
+  });
+  it('tells a few volts of ripple on 60 kV apart in kV', () => {
+    const t = niceTicks(59.9616, 59.9696, 4);
+    // 8 V over 4 intervals: a 2.5 V step, written 59.9600, 59.9625 … kV.
+    expect(t.ticks[1] - t.ticks[0]).toBeCloseTo(0.0025, 12);
+    expect(t.decimals).toBe(4);
+    expect(new Set(t.ticks.map((x) => x.toFixed(t.decimals))).size).toBe(t.ticks.length);
+    expect(t.domain[0]).toBeLessThanOrEqual(59.9616);
+    expect(t.domain[1]).toBeGreaterThanOrEqual(59.9696);
+  });
+  it('gives a flat signal a band around its value', () => {
+    const t = niceTicks(5, 5);
+    expect(t.domain[0]).toBeLessThan(5);
+    expect(t.domain[1]).toBeGreaterThan(5);
+    expect(niceTicks(0, 0).domain).toEqual([-1, 1]);
   });
 });
