@@ -201,7 +201,8 @@ function distance(p: { x: number; y: number }, q: { x: number; y: number }): num
  * feeds no stage yet, or its xIn lies within SNAP_PX of a drive's hot output (a first stage), the
  * result is the position that puts the ports exactly on each other and the wires that join them:
  * output to input, or for a drive hot → xIn, the second hot output → x2In of a full-wave stage, and
- * the drive's return node (its ground block when it has one) → yIn. Only wires that
+ * the drive's return node (its ground block when it has one) → yIn. Stages above the dropped one
+ * in its own ladder are never snap targets (that would close the ladder into a ring). Only wires that
  * {@link checkWire} accepts, one after another, are returned. Null when nothing is near.
  */
 export function snapWires(doc: DesignDocument, blockId: string): { position: { x: number; y: number }; wires: WireCandidate[] } | null {
@@ -211,6 +212,9 @@ export function snapWires(doc: DesignDocument, blockId: string): { position: { x
   const nets = documentNets(doc);
   const stages = doc.blocks.filter((b): b is StageBlock => b.kind === 'stage');
   const fed = new Set(stages.filter((b) => b.id !== block.id).flatMap((b) => stages.filter((a) => follows(nets, a, b)).map((a) => a.id)));
+  // A stage never snaps onto a stage above it in its own ladder (that would wire the ladder into a ring).
+  const own = canvasLadders(doc).find((l) => l.stages.includes(block.id))?.stages ?? [];
+  const above = new Set(own.slice(own.indexOf(block.id) + 1));
 
   let best: { score: number; position: { x: number; y: number }; wires: WireCandidate[] } | null = null;
   const consider = (score: number, anchor: { x: number; y: number }, wires: WireCandidate[]) => {
@@ -219,7 +223,7 @@ export function snapWires(doc: DesignDocument, blockId: string): { position: { x
   };
 
   for (const other of stages) {
-    if (other.id === block.id || fed.has(other.id)) continue;
+    if (other.id === block.id || fed.has(other.id) || above.has(other.id)) continue;
     const pairs = block.data.variant === 'full' && other.data.variant === 'full' ? COLUMNS : COLUMNS.slice(0, 2);
     let score = 0;
     let near = true;

@@ -128,6 +128,17 @@ describe('snapWires', () => {
     expect(snapWires({ ...doc, blocks: [...doc.blocks, overS1] }, 's3')).toBeNull();
   });
 
+  it('a stage moved next to the top of its own ladder does not snap onto it', () => {
+    const doc = starterDocument('half-wave', 3);
+    const s3 = block(doc, 's3');
+    const moved = { ...doc, blocks: doc.blocks.map((b) => (b.id === 's1' ? { ...b, position: { x: s3.position.x + STAGE_WIDTH + 8, y: s3.position.y + 8 } } : b)) };
+    expect(snapWires(moved, 's1')).toBeNull();
+    // Its direct predecessor is still a target: s2 nudged off s1's outputs snaps back.
+    const s1 = block(doc, 's1');
+    const nudged = { ...doc, blocks: doc.blocks.map((b) => (b.id === 's2' ? { ...b, position: { x: b.position.x + 10, y: b.position.y - 6 } } : b)) };
+    expect(snapWires(nudged, 's2')).toEqual({ position: { x: s1.position.x + STAGE_WIDTH, y: s1.position.y }, wires: [] });
+  });
+
   it('a first stage snaps onto the drive: hot → xIn, ground → yIn (and hotB → x2In for full-wave)', () => {
     const src = createBlock('ac-source-ct', 'src', { x: 0, y: 120 });
     const gnd = createBlock('ground', 'gnd', { x: 0, y: 320 });
