@@ -1,7 +1,7 @@
 'use client';
 
 import type { ReactNode } from 'react';
-import type { CapacitorSpec, DesignBlock, DiodeSpec } from '@/lib/circuit';
+import { portsOf, type CapacitorSpec, type DesignBlock, type DiodeSpec } from '@/lib/circuit';
 import { ChoiceField } from '@/components/editor/fields/choice-field';
 import { EngineeringInput } from '@/components/editor/fields/engineering-input';
 import { SpecFields } from '@/components/editor/fields/spec-fields';
@@ -275,6 +275,10 @@ export function BlockInspector({ block, readOnly, onChange }: { block: DesignBlo
         testId="field-label"
       />
       <KindForm block={block} onChange={onChange} readOnly={readOnly} />
+      {/* Variant switches change the ports; naming them tells the designer which wires now need redrawing. */}
+      <p className="text-[11px] text-ink-400" data-testid="inspector-ports">
+        Ports: <span className="font-mono">{portsOf(block).join(', ')}</span>
+      </p>
     </section>
   );
 }

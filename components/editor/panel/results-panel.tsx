@@ -58,7 +58,7 @@ export function ResultsPanel({
   const waiting = snapshot.status === 'cannot-solve' ? 'No solve: see the status above.' : 'Waiting for the steady-state solve…';
 
   return (
-    <aside data-testid="results-panel" aria-label="Results" className="flex h-full min-h-0 flex-col bg-ink-900 text-ink-100">
+    <section data-testid="results-panel" aria-label="Results" className="flex h-full min-h-0 flex-col bg-ink-900 text-ink-100">
       <div
         role="status"
         aria-live="polite"
@@ -124,6 +124,6 @@ export function ResultsPanel({
           </p>
         ) : null}
       </div>
-    </aside>
+    </section>
   );
 }
