@@ -10,8 +10,9 @@
  *   estimate take milliseconds, so it is always free for the next edit);
  * - the solve worker runs a synchronous solve and cannot be interrupted, so when a newer
  *   document arrives while it is busy (solve or warm-up) it is terminated and a spare worker,
- *   started in advance with the engine already loaded, takes the new job (a fresh spare is
- *   started at once; loading the engine into a new worker costs far more than an estimate).
+ *   started in advance with the engine already loaded, takes the new job. The spare is started
+ *   when a solve hands over to its warm-up and after every replacement, not at page load,
+ *   where it would compete with the first estimate for the CPU.
  * Jobs carry their own increasing ids, so late replies of an older job are never mistaken for
  * the current one even if the editor's version counter restarts.
  */
@@ -155,6 +156,7 @@ export class EngineController {
   }
 
   private sendSolve(job: Job): void {
+    const replaced = this.solveBusy !== null;
     if (this.solveBusy) {
       // The solver cannot be interrupted: drop that worker with its solve and start afresh.
       this.solveWorker?.terminate();
@@ -165,7 +167,7 @@ export class EngineController {
       if (this.snapshot.warmupPending) this.set({ ...this.snapshot, warmupPending: false });
     }
     const worker = (this.solveWorker ??= this.spawn('solve'));
-    this.spare ??= this.spawn('solve');
+    if (replaced) this.spare ??= this.spawn('solve');
     this.solveBusy = job;
     this.jobs.solve.set(job.id, job);
     worker.postMessage({ type: 'solve', version: job.id, document: job.document, warmup: this.warmup });
@@ -239,6 +241,8 @@ export class EngineController {
           timings: { ...s.timings, solveMs: reply.timings.solveMs, warmupMs: undefined, editToSolveMs: this.elapsedSince(job.version) },
         });
         if (!this.warmup) this.solveDone(job);
+        // The warm-up keeps this worker busy for a while: have a spare ready for the next edit.
+        else if (!this.disposed) this.spare ??= this.spawn('solve');
         return;
       case 'warmup':
         this.solveDone(job);
