@@ -180,7 +180,7 @@ export function documentFromNetlist(netlist: Netlist): NetlistImport {
   const stray = uniformStray(topo, drawn.length === topo.ladders.length, byName);
 
   // Drives: one source block per V element (a symmetric pair shares one), centre-tapped where it fits.
-  const sourceOf = new Map<string, { id: string; port: string }>();
+  const placedDrives = new Set<string>();
   let row = 0;
   const rowY = (r: number) => LAYOUT.rowY + r * LAYOUT.rowPitch;
   const ladderYs: number[] = [];
@@ -189,12 +189,12 @@ export function documentFromNetlist(netlist: Netlist): NetlistImport {
     ladderYs.push(y);
     const placeSourceAt = symmetric ? LAYOUT.rowY : y;
     const [d1, d2] = plan.drives;
-    if (sourceOf.has(d1.v.name) && (!d2 || sourceOf.has(d2.v.name))) return;
+    if (placedDrives.has(d1.v.name) && (!d2 || placedDrives.has(d2.v.name))) return;
     const ct =
       d2 &&
       relEq(d1.amplitudeV, d2.amplitudeV) &&
       relEq(d1.frequencyHz, d2.frequencyHz) &&
-      (relEq(d1.sourceResistanceOhm, d2.sourceResistanceOhm) || d1.sourceResistanceOhm === d2.sourceResistanceOhm) &&
+      relEq(d1.sourceResistanceOhm, d2.sourceResistanceOhm) &&
       Math.abs(norm360(d2.phaseDeg - d1.phaseDeg) - 180) < 1e-9;
     if (ct) {
       const id = lay.id('src', true);
@@ -202,17 +202,16 @@ export function documentFromNetlist(netlist: Netlist): NetlistImport {
         { id, kind: 'acSource', position: { x: 0, y: placeSourceAt }, label: 'Two-phase drive', data: { variant: 'centreTapped', amplitudeV: d1.amplitudeV, amplitudeMode: 'peak', frequencyHz: d1.frequencyHz, phaseDeg: d1.phaseDeg, sourceResistanceOhm: d1.sourceResistanceOhm } },
         { hot: d1.hot, hotB: d2.hot, ct: GROUND },
       );
-      sourceOf.set(d1.v.name, { id, port: 'hot' });
-      sourceOf.set(d2.v.name, { id, port: 'hotB' });
+      placedDrives.add(d1.v.name).add(d2.v.name);
     } else {
       plan.drives.forEach((d, i) => {
-        if (sourceOf.has(d.v.name)) return;
+        if (placedDrives.has(d.v.name)) return;
         const id = lay.id('src', true);
         lay.add(
           { id, kind: 'acSource', position: { x: 0, y: placeSourceAt - i * 140 }, label: i === 0 ? 'Drive' : 'Antiphase drive', data: { variant: 'single', amplitudeV: d.amplitudeV, amplitudeMode: 'peak', frequencyHz: d.frequencyHz, phaseDeg: d.phaseDeg, sourceResistanceOhm: d.sourceResistanceOhm } },
           { hot: d.hot, ret: GROUND },
         );
-        sourceOf.set(d.v.name, { id, port: 'hot' });
+        placedDrives.add(d.v.name);
       });
     }
     for (const d of plan.drives) d.consumed.forEach((n) => consumed.add(n));
@@ -262,7 +261,7 @@ export function documentFromNetlist(netlist: Netlist): NetlistImport {
   // Everything else: single parts and sources in rows below the drawing.
   const bottom = lay.blocks.reduce((acc, b) => Math.max(acc, b.position.y + blockSize(b).height), drawn.length > 0 ? LAYOUT.rowY + LAYOUT.groundDy : 0);
   const partsY = drawn.length > 0 ? bottom + LAYOUT.partsGap : LAYOUT.rowY;
-  let slot = drawn.length > 0 ? 0 : 1;
+  let slot = 0;
   const nextSlot = () => {
     const s = slot++;
     return { x: (s % LAYOUT.partsPerRow) * LAYOUT.partPitchX, y: partsY + Math.floor(s / LAYOUT.partsPerRow) * LAYOUT.partPitchY };
