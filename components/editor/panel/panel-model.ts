@@ -353,15 +353,30 @@ export interface PlotSeries {
 
 /**
  * The one-period plot of the selected nodes, scaled to the display units (`timeFactor`,
- * `voltFactor`); nodes without a waveform are left out.
+ * `voltFactor`); nodes without a waveform are left out. With `centred` each node's mean is
+ * subtracted, so the ripple of nodes at very different levels (the two outputs of a symmetric
+ * pair, ±30 kV) can be compared on one axis; the means then all sit at 0.
  */
-export function waveformSeries(readings: readonly NodeReading[], timeFactor: number, voltFactor: number, maxPoints = 600): PlotSeries[] {
+export function waveformSeries(readings: readonly NodeReading[], timeFactor: number, voltFactor: number, maxPoints = 600, centred = false): PlotSeries[] {
   return readings
     .filter((r) => r.waveform && r.waveform.t.length > 1)
     .map((r) => {
       const d = decimateMinMax(r.waveform!.t, r.waveform!.v, maxPoints);
-      return { node: r.node, label: r.label, mean: r.meanV * voltFactor, points: d.t.map((t, i) => ({ x: t * timeFactor, y: d.v[i] * voltFactor })) };
+      const offset = centred ? r.meanV : 0;
+      return {
+        node: r.node,
+        label: r.label,
+        mean: (r.meanV - offset) * voltFactor,
+        points: d.t.map((t, i) => ({ x: t * timeFactor, y: (d.v[i] - offset) * voltFactor })),
+      };
     });
+}
+
+/** Largest excursion of the readings from their means (V), to choose the volt scale of a centred plot. */
+export function maxAbsRipple(readings: readonly NodeReading[]): number {
+  let m = 0;
+  for (const r of readings) m = Math.max(m, Math.abs(r.maxV - r.meanV), Math.abs(r.meanV - r.minV));
+  return m;
 }
 
 /** Largest |v| over the readings' waveforms and levels (V), to choose the volt scale. */

@@ -1,9 +1,10 @@
 'use client';
 
+import { useState } from 'react';
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { NodeReading } from '@/lib/editor/types';
 import { timeScale, voltScale } from '@/lib/editor/format';
-import { maxAbsVolts, niceTicks, seriesRange, waveformSeries } from './panel-model';
+import { maxAbsRipple, maxAbsVolts, niceTicks, seriesRange, waveformSeries } from './panel-model';
 
 /** Series colours: teal for the first result, copper for the second, then light slate tones. */
 export const SERIES_COLOURS = ['#2fa69b', '#e08a4c', '#c9d1d7', '#d8f1ef', '#fbe9dc', '#7d8b96'];
@@ -15,9 +16,10 @@ const axisTick = { fill: '#c9d1d7', fontSize: 10 };
  * line; time in µs or ms, volts in V or kV as the values call for.
  */
 export function WaveformPlot({ readings, periodS }: { readings: NodeReading[]; periodS: number }) {
+  const [centred, setCentred] = useState(false);
   const ts = timeScale(periodS);
-  const vs = voltScale(maxAbsVolts(readings));
-  const series = waveformSeries(readings, ts.factor, vs.factor);
+  const vs = voltScale(centred ? maxAbsRipple(readings) : maxAbsVolts(readings));
+  const series = waveformSeries(readings, ts.factor, vs.factor, 600, centred);
   if (series.length === 0) return <p className="text-xs text-ink-400">The solve sent no waveform for these nodes.</p>;
   const [lo, hi] = seriesRange(series);
   const y = niceTicks(lo, hi, 4);
@@ -26,7 +28,11 @@ export function WaveformPlot({ readings, periodS }: { readings: NodeReading[]; p
   const fmtV = (v: number) => v.toFixed(y.decimals);
   const fmtTip = (v: number) => v.toFixed(y.decimals + 1);
   return (
-    <figure data-testid="waveform-plot" data-series={series.length} className="space-y-1">
+    <figure data-testid="waveform-plot" data-series={series.length} data-centred={centred ? 'true' : 'false'} className="space-y-1">
+      <label className="flex items-center justify-end gap-1 text-[11px] text-ink-400">
+        <input type="checkbox" checked={centred} onChange={(e) => setCentred(e.target.checked)} className="accent-lagoon-400" data-testid="waveform-centred" />
+        ripple only (mean removed)
+      </label>
       <div className="h-48 w-full" role="img" aria-label={`One period of ${series.map((s) => s.label).join(', ')}, volts in ${vs.unit} against time in ${ts.unit}`}>
         <ResponsiveContainer width="100%" height="100%">
           <LineChart margin={{ top: 6, right: 10, bottom: 14, left: 4 }}>
@@ -51,7 +57,7 @@ export function WaveformPlot({ readings, periodS }: { readings: NodeReading[]; p
               tickFormatter={fmtV}
               stroke="#46545f"
               width={y.decimals > 2 ? 64 : 52}
-              label={{ value: vs.unit, angle: -90, position: 'insideLeft', fill: '#7d8b96', fontSize: 10 }}
+              label={{ value: centred ? `${vs.unit} − mean` : vs.unit, angle: -90, position: 'insideLeft', fill: '#7d8b96', fontSize: 10 }}
             />
             <Tooltip
               contentStyle={{ background: '#141a1f', border: '1px solid #46545f', fontSize: 11 }}
@@ -84,7 +90,7 @@ export function WaveformPlot({ readings, periodS }: { readings: NodeReading[]; p
             {s.label}
           </span>
         ))}
-        <span className="text-ink-400">dashed: mean</span>
+        <span className="text-ink-400">{centred ? 'each node about its own mean' : 'dashed: mean'}</span>
       </figcaption>
     </figure>
   );

@@ -9,6 +9,7 @@ import {
   checkStatus,
   compareRows,
   decimateMinMax,
+  maxAbsRipple,
   nextSort,
   niceTicks,
   nodeRows,
@@ -262,5 +263,22 @@ describe('niceTicks', () => {
     expect(t.domain[0]).toBeLessThan(5);
     expect(t.domain[1]).toBeGreaterThan(5);
     expect(niceTicks(0, 0).domain).toEqual([-1, 1]);
+  });
+});
+
+describe('centred waveform', () => {
+  it('removes each node’s mean so both outputs of a symmetric pair share one ripple axis', () => {
+    const readings = sym.solve!.outputs.map((o) => sym.solve!.nodes[o.node]);
+    const series = waveformSeries(readings, 1e6, 1, 600, true);
+    expect(series).toHaveLength(2);
+    readings.forEach((r, i) => {
+      const ys = series[i].points.map((p) => p.y);
+      expect(series[i].mean).toBe(0);
+      expect(Math.max(...ys)).toBeLessThanOrEqual(r.maxV - r.meanV + 1e-9);
+      expect(Math.min(...ys)).toBeGreaterThanOrEqual(r.minV - r.meanV - 1e-9);
+      expect(Math.max(...ys) - Math.min(...ys)).toBeLessThanOrEqual(r.rippleV + 1e-9);
+    });
+    expect(maxAbsRipple(readings)).toBeLessThan(Math.max(...readings.map((r) => r.rippleV)) + 1e-9);
+    expect(maxAbsRipple(readings)).toBeGreaterThan(0);
   });
 });
