@@ -176,7 +176,17 @@ export function checkWire(doc: DesignDocument, w: WireCandidate): WireCheck {
   const dst = byId.get(w.target);
   if (!src) return { ok: false, reason: `There is no block "${w.source}" on the canvas.` };
   if (!dst) return { ok: false, reason: `There is no block "${w.target}" on the canvas.` };
-  const name = (b: DesignBlock) => blockName(doc, b);
+  // Labels counted once: naming every part through blockName would rescan the blocks per part.
+  const labelCount = new Map<string, number>();
+  for (const b of doc.blocks) {
+    const l = b.label?.trim();
+    if (l) labelCount.set(l, (labelCount.get(l) ?? 0) + 1);
+  }
+  const name = (b: DesignBlock) => {
+    const l = b.label?.trim();
+    if (!l) return b.id;
+    return (labelCount.get(l) ?? 0) > 1 ? `${l} (${b.id})` : l;
+  };
   for (const [b, p] of [
     [src, w.sourcePort],
     [dst, w.targetPort],
