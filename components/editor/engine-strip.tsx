@@ -1,0 +1,99 @@
+'use client';
+/**
+ * What the engine made of the drawing, above the canvas: the topology badge, which result is
+ * current (solving / solved / out of date / cannot solve: why), and the diagnostics list whose
+ * entries focus the block at fault.
+ */
+import type { Diagnostic } from '@/lib/circuit/compile/diagnostics';
+import type { EngineSnapshot } from '@/lib/editor/types';
+
+/** The engine status as the canvas shows it (also the `data-status` of `engine-status`). */
+export type CanvasEngineStatus = 'idle' | 'solving' | 'solved' | 'out-of-date' | 'cannot-solve';
+
+/** Maps the snapshot to one status: a result of an older edit on screen is "out of date". */
+export function canvasStatus(s: EngineSnapshot): { status: CanvasEngineStatus; text: string } {
+  if (s.status === 'cannot-solve') return { status: 'cannot-solve', text: `Cannot solve: ${s.reason ?? 'the drawing does not compile'}` };
+  if (s.status === 'idle') return { status: 'idle', text: 'Waiting for the first compile' };
+  if (s.status === 'compiling') return { status: 'out-of-date', text: 'Out of date: compiling the latest edit' };
+  if (s.status === 'solving') return { status: 'solving', text: 'Estimate current · solving…' };
+  if (s.solvedVersion !== s.currentVersion) return { status: 'out-of-date', text: 'Out of date: the shown solve is of an older edit' };
+  return { status: 'solved', text: s.warmupPending ? 'Solved · warm-up running' : 'Solved' };
+}
+
+const STATUS_CLASS: Record<CanvasEngineStatus, string> = {
+  idle: 'border-ink-600 text-ink-200',
+  solving: 'border-copper-600 text-copper-100',
+  solved: 'border-lagoon-600 text-lagoon-100',
+  'out-of-date': 'border-copper-600 text-copper-100',
+  'cannot-solve': 'border-hazard-700 bg-hazard-700/20 text-hazard-100',
+};
+
+export function TopologyBadge({ snapshot }: { snapshot: EngineSnapshot }) {
+  const badge = snapshot.compile?.badge;
+  return (
+    <span
+      data-testid="topology-badge"
+      data-kind={badge?.kind ?? ''}
+      data-stages={badge?.stages ?? ''}
+      className="inline-flex items-center rounded-full border border-lagoon-600 px-2.5 py-0.5 text-xs font-semibold text-lagoon-100"
+    >
+      {badge ? badge.label : 'Not compiled yet'}
+    </span>
+  );
+}
+
+export function EngineStatusPill({ snapshot }: { snapshot: EngineSnapshot }) {
+  const { status, text } = canvasStatus(snapshot);
+  const busy = status === 'solving' || (status === 'out-of-date' && snapshot.status === 'compiling');
+  return (
+    <span
+      data-testid="engine-status"
+      data-status={status}
+      role="status"
+      aria-live="polite"
+      className={`inline-flex max-w-full items-center gap-1.5 rounded-full border px-2.5 py-0.5 text-xs ${STATUS_CLASS[status]}`}
+    >
+      {busy ? <span className="inline-block h-2 w-2 animate-pulse rounded-full bg-copper-400" aria-hidden="true" /> : null}
+      <span className="truncate">{text}</span>
+    </span>
+  );
+}
+
+const SEVERITY_CLASS: Record<Diagnostic['severity'], string> = {
+  error: 'border-hazard-700 text-hazard-100',
+  warning: 'border-copper-600 text-copper-100',
+  info: 'border-ink-600 text-ink-200',
+};
+
+/** Diagnostics of the current compile, errors first; pressing one focuses its block. */
+export function DiagnosticsList({ snapshot, onFocusBlock }: { snapshot: EngineSnapshot; onFocusBlock: (blockId: string) => void }) {
+  const list = snapshot.compile?.diagnostics ?? [];
+  const order = { error: 0, warning: 1, info: 2 } as const;
+  const sorted = [...list].sort((a, b) => order[a.severity] - order[b.severity]);
+  return (
+    <div data-testid="diagnostics-list" data-count={sorted.length} aria-label="Diagnostics">
+      {sorted.length === 0 ? (
+        <p className="text-xs text-ink-400">{snapshot.compile ? 'No diagnostics: the drawing compiles cleanly.' : 'No compile yet.'}</p>
+      ) : (
+        <ul className="space-y-1">
+          {sorted.map((d, i) => (
+            <li key={`${d.code}-${d.blockId ?? ''}-${d.node ?? ''}-${i}`}>
+              <button
+                type="button"
+                disabled={!d.blockId}
+                onClick={() => d.blockId && onFocusBlock(d.blockId)}
+                data-testid="diagnostic"
+                data-severity={d.severity}
+                data-block={d.blockId ?? ''}
+                className={`w-full rounded-md border px-2 py-1 text-left text-xs ${SEVERITY_CLASS[d.severity]} enabled:hover:bg-ink-800 disabled:cursor-default`}
+              >
+                <span className="font-semibold">{d.severity === 'error' ? 'Error' : d.severity === 'warning' ? 'Warning' : 'Note'}:</span> {d.message}
+                {d.blockId ? <span className="ml-1 text-ink-400">(show {d.blockId})</span> : null}
+              </button>
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}
