@@ -9,9 +9,10 @@ import type { DesignDetailDto } from '@/lib/api/contract';
 import { ApiError, formError } from '@/lib/client/api';
 import { formatDateTime, statusLabel } from '@/lib/client/format';
 import { useDesign, useForkDesign, useRevision, useRevisions, useUpdateDesign } from '@/lib/client/hooks';
+import { DesignEditor } from '@/components/editor/design-editor';
 import { DocumentSummaryView } from './document-summary-view';
 
-function Actions({ design }: { design: DesignDetailDto }) {
+function Actions({ design, revision }: { design: DesignDetailDto; revision: number | null }) {
   const router = useRouter();
   const fork = useForkDesign(design.id);
   const update = useUpdateDesign(design.id);
@@ -25,9 +26,9 @@ function Actions({ design }: { design: DesignDetailDto }) {
             data-testid="fork-design"
             pending={fork.isPending}
             pendingLabel="Forking…"
-            onClick={() => fork.mutate({}, { onSuccess: (res) => router.push(`/designs/${res.design.id}`) })}
+            onClick={() => fork.mutate(revision !== null ? { revision } : {}, { onSuccess: (res) => router.push(`/designs/${res.design.id}`) })}
           >
-            Fork
+            {revision !== null ? `Fork from r${revision}` : 'Fork'}
           </Button>
         ) : null}
         {p.share ? (
@@ -58,6 +59,9 @@ function Actions({ design }: { design: DesignDetailDto }) {
     </div>
   );
 }
+
+/** The editor is wider than the page column: it takes the window width (with a margin), centred. */
+const EDITOR_WIDTH = 'min(calc(100vw - 3rem), 1760px)';
 
 function Revisions({ designId, latest, selected, onSelect }: { designId: string; latest: number; selected: number; onSelect: (n: number) => void }) {
   const revisions = useRevisions(designId);
@@ -92,7 +96,11 @@ function Revisions({ designId, latest, selected, onSelect }: { designId: string;
   );
 }
 
-/** The design page shell: header, lineage, stored document summary, revision history and actions. */
+/**
+ * The design page: header, lineage and actions, the editor (the working copy on the latest
+ * revision; an older revision picked in the history opens read-only beside it), revision
+ * history, forks and the high-voltage caution.
+ */
 export function DesignRoot({ designId }: { designId: string }) {
   const design = useDesign(designId);
   const [chosen, setChosen] = useState<number | null>(null);
@@ -112,6 +120,7 @@ export function DesignRoot({ designId }: { designId: string }) {
   const d = design.data.design;
   const rev = showing !== null && other.data ? other.data.revision : design.data.revision;
   const selected = showing ?? design.data.revision.number;
+  const p = d.permissions;
 
   return (
     <div className="space-y-5">
@@ -146,31 +155,52 @@ export function DesignRoot({ designId }: { designId: string }) {
           ) : null}
           {d.description ? <p className="max-w-3xl text-sm text-ink-200">{d.description}</p> : null}
         </div>
-        <Actions design={d} />
+        <Actions design={d} revision={showing} />
+      </div>
+
+      <div className="space-y-2" style={{ width: EDITOR_WIDTH, marginLeft: `calc(50% - ${EDITOR_WIDTH} / 2)` }}>
+        <p className="text-xs text-ink-400" data-testid="revision-line">
+          {showing !== null ? <span className="mr-2 text-copper-400">older revision</span> : null}
+          r{selected}, saved by {rev.author.name || rev.author.email} on {formatDateTime(rev.createdAt)}
+          {rev.message ? `: “${rev.message}”` : ''}
+        </p>
+        {showing !== null && other.isPending ? <Skeleton lines={4} /> : null}
+        {showing !== null && other.isError ? <Notice tone="error">{formError(other.error)}</Notice> : null}
+        {showing !== null && other.data ? (
+          <DesignEditor
+            key={`r${other.data.revision.number}`}
+            designId={d.id}
+            title={`${d.title} r${other.data.revision.number}`}
+            revisionNumber={other.data.revision.number}
+            document={other.data.revision.document}
+            mode="revision"
+            canEdit={false}
+          />
+        ) : null}
+        <div hidden={showing !== null}>
+          <DesignEditor
+            key={d.id}
+            designId={d.id}
+            title={d.title}
+            revisionNumber={design.data.revision.number}
+            document={design.data.revision.document}
+            mode="working"
+            canEdit={p.edit && !d.archived}
+            readOnlyReason={d.archived ? 'archived' : 'role'}
+            active={showing === null}
+          />
+        </div>
       </div>
 
       <div className="grid gap-5 lg:grid-cols-[1fr_20rem]">
         <div className="space-y-5">
-          <Panel
-            title={
-              <span>
-                Stored document, r{selected}
-                {selected !== d.latestRevision ? <span className="ml-2 text-sm font-normal text-copper-400">older revision</span> : null}
-              </span>
-            }
-            testId="summary-panel"
-          >
-            {showing !== null && other.isPending ? <Skeleton lines={4} /> : null}
-            {showing !== null && other.isError ? <Notice tone="error">{formError(other.error)}</Notice> : null}
-            {showing === null || other.data ? (
-              <>
-                <DocumentSummaryView document={rev.document} topology={rev.number === d.latestRevision ? d.topology : undefined} />
-                <p className="mt-4 text-xs text-ink-400">
-                  Saved by {rev.author.name || rev.author.email} on {formatDateTime(rev.createdAt)}
-                  {rev.message ? `: “${rev.message}”` : ''}. The drawing canvas for editing comes in a later release.
-                </p>
-              </>
-            ) : null}
+          <p className="rounded-md border border-copper-600 bg-copper-800/30 px-4 py-3 text-sm text-copper-100" data-testid="design-caution">
+            The numbers here describe a circuit that can hold a lethal charge. Treat every stage as live until it is
+            discharged and measured, and have the build checked against your local codes by licensed people.
+          </p>
+
+          <Panel title={<span>Stored revision r{selected} in brief</span>} testId="summary-panel">
+            <DocumentSummaryView document={rev.document} topology={rev.number === d.latestRevision ? d.topology : undefined} />
           </Panel>
 
           {d.forks.length > 0 ? (
@@ -189,11 +219,6 @@ export function DesignRoot({ designId }: { designId: string }) {
               </ul>
             </Panel>
           ) : null}
-
-          <p className="rounded-md border border-copper-600 bg-copper-800/30 px-4 py-3 text-sm text-copper-100" data-testid="design-caution">
-            The numbers here describe a circuit that can hold a lethal charge. Treat every stage as live until it is
-            discharged and measured, and have the build checked against your local codes by licensed people.
-          </p>
         </div>
 
         <Panel title="Revision history">
