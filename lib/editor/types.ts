@@ -124,6 +124,9 @@ export interface EngineSnapshot {
   solve: SolveView | null;
   /** Whether the warm-up run for the shown solve is still going. */
   warmupPending: boolean;
-  /** Wall times (ms) of the last run: worker compute and edit → shown on the main thread. */
-  timings: { compileMs?: number; solveMs?: number; warmupMs?: number; editToEstimateMs?: number; editToSolveMs?: number };
+  /**
+   * Wall times (ms) of the last run: worker compute (compile, estimate, steady-state solve,
+   * warm-up) and edit → reply received on the main thread (from when `useEngine` first saw the version).
+   */
+  timings: { compileMs?: number; estimateMs?: number; solveMs?: number; warmupMs?: number; editToEstimateMs?: number; editToSolveMs?: number };
 }

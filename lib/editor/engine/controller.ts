@@ -223,7 +223,7 @@ export class EngineController {
           compile: reply.compile,
           estimate: reply.estimate,
           compiledVersion: job.version,
-          timings: { ...s.timings, compileMs: reply.timings.compileMs, editToEstimateMs: this.elapsedSince(job.version) },
+          timings: { ...s.timings, compileMs: reply.timings.compileMs, estimateMs: reply.timings.estimateMs, editToEstimateMs: this.elapsedSince(job.version) },
         });
         // A newer edit already past its coalescing window waited for this compile to finish.
         if (this.latest && !current && this.timer === null && !this.disposed) this.sendCompile(this.latest);

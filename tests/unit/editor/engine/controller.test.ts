@@ -81,8 +81,8 @@ describe('engine controller scheduling', () => {
     vi.advanceTimersByTime(12);
     const id = live('compile').sent[0].version;
     clock = 1020;
-    live('compile').reply({ type: 'compiled', version: id, compile: okCompile, estimate: null, timings: { compileMs: 2 } });
-    expect(controller.getSnapshot()).toMatchObject({ status: 'solving', compiledVersion: 1, compile: okCompile, timings: { compileMs: 2, editToEstimateMs: 20 } });
+    live('compile').reply({ type: 'compiled', version: id, compile: okCompile, estimate: null, timings: { compileMs: 2, estimateMs: 0.5 } });
+    expect(controller.getSnapshot()).toMatchObject({ status: 'solving', compiledVersion: 1, compile: okCompile, timings: { compileMs: 2, estimateMs: 0.5, editToEstimateMs: 20 } });
     clock = 1300;
     live('solve').reply({ type: 'solved', version: id, solve: aSolve, timings: { solveMs: 250 } });
     expect(controller.getSnapshot()).toMatchObject({ status: 'solved', solvedVersion: 1, warmupPending: true, timings: { solveMs: 250, editToSolveMs: 300 } });
