@@ -226,3 +226,47 @@ export function updateSettings(settings: DesignSettings, path: readonly string[]
   if (getNumberAt(settings, path) === value) return settings;
   return setAt(settings, path, value);
 }
+
+/** What a value field does when its entry is committed (blur or Enter). */
+export type CommitDecision =
+  /** Nothing to pass on: the text is what the field showed, or reads as the same value. */
+  | { kind: 'unchanged' }
+  /** The entry is refused; the field keeps the text and shows the reason. */
+  | { kind: 'refuse'; reason: string }
+  /** Pass this value (undefined = clear an optional field) to the form. */
+  | { kind: 'commit'; value: number | undefined };
+
+/**
+ * Decide a field's commit: `text` as typed, `shownText` what the field displayed for the current
+ * `value` (so tabbing through a field never rounds its value to the shown digits), the field's
+ * spec and an optional extra check. A refused entry is never committed.
+ */
+export function decideCommit(
+  text: string,
+  shownText: string,
+  value: number | undefined,
+  spec: Pick<FieldSpec, 'unit' | 'rule' | 'optional' | 'scale'>,
+  validate?: (v: number) => string | null,
+): CommitDecision {
+  if (text === shownText) return { kind: 'unchanged' };
+  const read = readField(text, spec);
+  if (!read.ok) return { kind: 'refuse', reason: read.reason };
+  if (read.value !== undefined && validate) {
+    const reason = validate(read.value);
+    if (reason) return { kind: 'refuse', reason };
+  }
+  if (Object.is(read.value, value)) return { kind: 'unchanged' };
+  return { kind: 'commit', value: read.value };
+}
+
+/** A block with its label set, or removed when `label` is undefined. */
+export function withLabel(block: DesignBlock, label: string | undefined): DesignBlock {
+  const { label: _old, ...rest } = block;
+  return (label === undefined ? rest : { ...rest, label }) as DesignBlock;
+}
+
+/** A part spec with its part reference set, or removed when `partId` is undefined. */
+export function withPartId<T extends { partId?: string | null }>(spec: T, partId: string | undefined): T {
+  const { partId: _old, ...rest } = spec;
+  return (partId === undefined ? rest : { ...rest, partId }) as T;
+}

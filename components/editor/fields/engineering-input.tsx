@@ -2,7 +2,7 @@
 
 import { useId, useState, type KeyboardEvent, type ReactNode } from 'react';
 import { formatInputValue } from '@/lib/editor/format';
-import { readField, type FieldRule } from '@/lib/editor/fields';
+import { decideCommit, type FieldRule } from '@/lib/editor/fields';
 
 interface EngineeringInputBase {
   label: ReactNode;
@@ -54,23 +54,16 @@ export function EngineeringInput(props: EngineeringInputProps) {
 
   function commit() {
     if (liveDraft === null || readOnly) return;
-    // Tabbing through a field must not round its value to the digits it is shown with.
-    if (liveDraft === shown) {
-      setDraft(null);
-      setError(null);
-      return;
-    }
-    const read = readField(liveDraft, { unit, rule, optional: props.optional, scale });
-    const extra = read.ok && read.value !== undefined && validate ? validate(read.value) : null;
-    if (!read.ok || extra) {
-      setError({ reason: read.ok ? (extra as string) : read.reason, base: props.value });
+    const decision = decideCommit(liveDraft, shown, props.value, { unit, rule, optional: props.optional, scale }, validate);
+    if (decision.kind === 'refuse') {
+      setError({ reason: decision.reason, base: props.value });
       return;
     }
     setDraft(null);
     setError(null);
-    if (Object.is(read.value, props.value)) return;
-    if (props.optional) props.onCommit(read.value);
-    else if (read.value !== undefined) props.onCommit(read.value);
+    if (decision.kind === 'unchanged') return;
+    if (props.optional) props.onCommit(decision.value);
+    else if (decision.value !== undefined) props.onCommit(decision.value);
   }
 
   function onKeyDown(e: KeyboardEvent<HTMLInputElement>) {

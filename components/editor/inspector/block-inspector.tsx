@@ -19,6 +19,8 @@ import {
   setAmplitudeMode,
   setLoadMode,
   setStageVariant,
+  withLabel,
+  withPartId,
 } from '@/lib/editor/fields';
 import { formatReading } from '@/lib/editor/format';
 
@@ -77,11 +79,6 @@ function DiodeForm({ spec, onChange, readOnly, testId }: { spec: DiodeSpec; onCh
       <PartIdField value={spec.partId} readOnly={readOnly} onCommit={(partId) => onChange(withPartId(spec, partId))} />
     </>
   );
-}
-
-function withPartId<T extends { partId?: string | null }>(spec: T, partId: string | undefined): T {
-  const { partId: _old, ...rest } = spec;
-  return (partId === undefined ? rest : { ...rest, partId }) as T;
 }
 
 function PartIdField({ value, onCommit, readOnly }: { value: string | null | undefined; onCommit: (v: string | undefined) => void; readOnly: boolean }) {
@@ -266,10 +263,7 @@ export function BlockInspector({ block, readOnly, onChange }: { block: DesignBlo
         label="Label"
         value={block.label}
         read={(t) => readLabel(t)}
-        onCommit={(label) => {
-          const { label: _old, ...rest } = block;
-          onChange((label === undefined ? rest : { ...rest, label }) as DesignBlock);
-        }}
+        onCommit={(label) => onChange(withLabel(block, label))}
         readOnly={readOnly}
         placeholder={KIND_TITLE[block.kind]}
         testId="field-label"

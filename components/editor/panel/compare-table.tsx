@@ -4,7 +4,19 @@ import { formatPercent, formatReading, formatSignedPercent } from '@/lib/editor/
 import { compareRows } from './panel-model';
 
 /** The closed-form estimate beside the full solve, with how far the estimate is from it. */
-export function CompareTable({ estimate, solve, warmupPending, solveStale }: { estimate: EstimateResult | null; solve: SolveView | null; warmupPending: boolean; solveStale: boolean }) {
+export function CompareTable({
+  estimate,
+  solve,
+  warmupPending,
+  solveStale,
+  estimateStale,
+}: {
+  estimate: EstimateResult | null;
+  solve: SolveView | null;
+  warmupPending: boolean;
+  solveStale: boolean;
+  estimateStale: boolean;
+}) {
   const rows = compareRows(estimate, solve, warmupPending);
   return (
     <div className="overflow-auto rounded border border-ink-800">
@@ -13,7 +25,7 @@ export function CompareTable({ estimate, solve, warmupPending, solveStale }: { e
         <thead className="bg-ink-800 text-ink-200">
           <tr>
             <th scope="col" className="px-1.5 py-1 text-left font-medium" />
-            <th scope="col" className="px-1.5 py-1 text-right font-medium">Estimate</th>
+            <th scope="col" className={`px-1.5 py-1 text-right font-medium ${estimateStale ? 'text-copper-100' : ''}`}>Estimate{estimateStale ? ' (old)' : ''}</th>
             <th scope="col" className={`px-1.5 py-1 text-right font-medium ${solveStale ? 'text-copper-100' : ''}`}>Solve{solveStale ? ' (old)' : ''}</th>
             <th scope="col" className="px-1.5 py-1 text-right font-medium" title="(estimate − solve) / solve">
               Est. off by

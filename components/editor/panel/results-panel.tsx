@@ -80,7 +80,7 @@ export function ResultsPanel({
       <div className="min-h-0 flex-1 space-y-1 overflow-y-auto px-2 pb-4">
         <Section title="Estimate vs solve" testId="panel-compare" note={estimate ? `${estimate.result.topology}, ${estimate.result.stages} stage${estimate.result.stages === 1 ? '' : 's'} per ladder` : undefined}>
           {estimate || solve ? (
-            <CompareTable estimate={estimate?.result ?? null} solve={solve} warmupPending={snapshot.warmupPending} solveStale={status.solveStale} />
+            <CompareTable estimate={estimate?.result ?? null} solve={solve} warmupPending={snapshot.warmupPending} solveStale={status.solveStale} estimateStale={status.estimateStale} />
           ) : (
             <Pending>{snapshot.status === 'cannot-solve' ? 'Nothing to compare: the drawing does not compile.' : 'Waiting for the compile…'}</Pending>
           )}

@@ -16,6 +16,7 @@ import {
   REASON_NOT_POSITIVE,
   RESISTOR_FIELDS,
   SETTINGS_FIELDS,
+  decideCommit,
   drivePeakV,
   getNumberAt,
   readField,
@@ -26,6 +27,8 @@ import {
   setLoadMode,
   setStageVariant,
   updateSettings,
+  withLabel,
+  withPartId,
   type FieldSpec,
 } from '@/lib/editor/fields';
 import { REASON_NOT_A_NUMBER, REASON_SUFFIX } from '@/lib/editor/format';
@@ -227,5 +230,43 @@ describe('settings edits pass designSettingsSchema', () => {
     }
     expect(s.requirement).toEqual({ outputV: 4.7e3, loadCurrentA: 4.7e3, maxRippleFraction: 0.5 });
     expect(updateSettings(s, ['deratingFraction'], s.deratingFraction)).toBe(s);
+  });
+});
+
+describe('decideCommit (what a field passes on at blur or Enter)', () => {
+  const cap = CAPACITOR_FIELDS[0];
+  const rated = CAPACITOR_FIELDS[1];
+  it('passes a changed valid value on', () => {
+    expect(decideCommit('4.7n', '10n', 10e-9, cap)).toEqual({ kind: 'commit', value: 4.7e-9 });
+    expect(decideCommit('', '25k', 25e3, rated)).toEqual({ kind: 'commit', value: undefined });
+  });
+  it('never passes a refused entry on', () => {
+    expect(decideCommit('4.7x', '10n', 10e-9, cap)).toMatchObject({ kind: 'refuse' });
+    expect(decideCommit('-1n', '10n', 10e-9, cap)).toEqual({ kind: 'refuse', reason: REASON_NOT_POSITIVE });
+    expect(decideCommit('', '10n', 10e-9, cap)).toMatchObject({ kind: 'refuse' });
+    expect(decideCommit('12k', '10k', 10e3, rated, (v) => (v > 11e3 ? 'above the part’s 11 kV' : null))).toEqual({ kind: 'refuse', reason: 'above the part’s 11 kV' });
+  });
+  it('does not round a value the field shows with fewer digits, nor commit the same value', () => {
+    // 123456.7 V is shown as 123.457k: tabbing through must leave it as it is.
+    expect(decideCommit('123.457k', '123.457k', 123456.7, rated)).toEqual({ kind: 'unchanged' });
+    expect(decideCommit('10nF', '10n', 10e-9, cap)).toEqual({ kind: 'unchanged' });
+    expect(decideCommit('', '', undefined, rated)).toEqual({ kind: 'unchanged' });
+  });
+});
+
+describe('label and part reference edits', () => {
+  it('set and remove without leaving empty keys, and stay valid', () => {
+    const b = first('stage');
+    const named = withLabel(b, 'Top stage');
+    expect(named.label).toBe('Top stage');
+    expect(valid(named)).toBe(true);
+    const unnamed = withLabel(named, undefined);
+    expect('label' in unnamed).toBe(false);
+    expect(valid(unnamed)).toBe(true);
+    const spec = withPartId(b.data.pumpC, 'TG-HVC-2n2');
+    expect(spec.partId).toBe('TG-HVC-2n2');
+    const block = setAt(b, ['data', 'pumpC'], spec);
+    expect(valid(block)).toBe(true);
+    expect('partId' in withPartId(spec, undefined)).toBe(false);
   });
 });
