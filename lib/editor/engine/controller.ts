@@ -13,7 +13,8 @@
  *   started in advance with the engine already loaded, takes the new job. The spare is started
  *   when a solve hands over to its warm-up and after every replacement, not at page load,
  *   where it would compete with the first estimate for the CPU.
- * Jobs carry their own increasing ids, so late replies of an older job are never mistaken for
+ * An edit that only moves blocks starts no job: the circuit is the same, so the results carry
+ * over to the new version. Jobs carry their own increasing ids, so late replies of an older job are never mistaken for
  * the current one even if the editor's version counter restarts.
  */
 import type { DesignDocument } from '@/lib/circuit';
@@ -41,8 +42,19 @@ export interface EngineControllerOptions {
 
 interface Job {
   id: number;
+  /** Editor version and document the job's results are shown for (moved forward by moves, see `update`). */
   version: number;
   document: DesignDocument;
+  /** {@link electricalKey} of the document. */
+  key: string;
+}
+
+/**
+ * What the engine's results depend on: the document without block positions (a move changes
+ * the drawing, not the circuit). Labels stay in, since node and part labels show them.
+ */
+export function electricalKey(doc: DesignDocument): string {
+  return JSON.stringify([doc.blocks.map(({ position: _p, ...rest }) => rest), doc.wires, doc.settings]);
 }
 
 /** The snapshot before any document was seen. */
@@ -102,9 +114,25 @@ export class EngineController {
   /** A new document (or version) is on the canvas: mark results out of date and schedule the jobs. */
   update(document: DesignDocument, version: number): void {
     if (this.latest && this.latest.version === version && this.latest.document === document && !this.disposed) return;
-    this.disposed = false;
     this.noteVersion(version);
-    this.latest = { id: this.nextId++, version, document };
+    const key = electricalKey(document);
+    if (this.latest && this.latest.key === key && !this.disposed) {
+      // Only moved: the results of the previous version (shown or on their way) stand for this
+      // one. The job is updated in place, so replies still to come are filed under the new version.
+      const previous = this.latest.version;
+      this.latest.version = version;
+      this.latest.document = document;
+      const s = this.snapshot;
+      this.set({
+        ...s,
+        currentVersion: version,
+        compiledVersion: s.compiledVersion === previous ? version : s.compiledVersion,
+        solvedVersion: s.solvedVersion === previous ? version : s.solvedVersion,
+      });
+      return;
+    }
+    this.disposed = false;
+    this.latest = { id: this.nextId++, version, document, key };
     this.set({ ...this.snapshot, currentVersion: version, status: 'compiling', reason: undefined });
     // Start the workers now, so that loading the engine overlaps the coalescing window.
     this.compileWorker ??= this.spawn('compile');

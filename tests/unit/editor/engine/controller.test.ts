@@ -157,6 +157,27 @@ describe('engine controller scheduling', () => {
     expect(cw.sent[1].document).toEqual(halfWaveStarter(3, O));
   });
 
+  it('starts no job for an edit that only moves blocks; the results carry over to the new version', () => {
+    const doc = halfWaveStarter(2, O);
+    controller.update(doc, 1);
+    vi.advanceTimersByTime(12);
+    const id = live('solve').sent[0].version;
+    live('compile').reply({ type: 'compiled', version: id, compile: okCompile, estimate: null, timings: {} });
+    const moved: DesignDocument = { ...doc, blocks: doc.blocks.map((b) => (b.id === 's1' ? { ...b, position: { x: b.position.x + 40, y: b.position.y - 8 } } : b)) };
+    controller.update(moved, 2);
+    vi.advanceTimersByTime(12);
+    expect(live('compile').sent).toHaveLength(1);
+    expect(live('solve').sent).toHaveLength(1);
+    expect(controller.getSnapshot()).toMatchObject({ currentVersion: 2, compiledVersion: 2, solvedVersion: null, status: 'solving' });
+    // The solve still running for version 1 arrives and is filed under version 2.
+    live('solve').reply({ type: 'solved', version: id, solve: aSolve, timings: {} });
+    expect(controller.getSnapshot()).toMatchObject({ currentVersion: 2, solvedVersion: 2, status: 'solved' });
+    // Renaming a block is an edit the results show (labels), so it is compiled again.
+    controller.update({ ...moved, blocks: moved.blocks.map((b) => (b.id === 's1' ? { ...b, label: 'Bottom stage' } : b)) }, 3);
+    vi.advanceTimersByTime(12);
+    expect(live('compile').sent).toHaveLength(2);
+  });
+
   it('says "solved" only once the compile of the same edit is shown, whichever arrives first', () => {
     controller.update(halfWaveStarter(2, O), 1);
     vi.advanceTimersByTime(12);
