@@ -100,7 +100,7 @@ export function EngineeringInput(props: EngineeringInputProps) {
           spellCheck={false}
           readOnly={readOnly}
           value={liveDraft ?? shown}
-          placeholder={props.optional ? 'not set' : undefined}
+          placeholder={props.optional ? (readOnly ? '—' : 'not set') : undefined}
           onChange={(e) => setDraft({ text: e.target.value, base: props.value })}
           onFocus={() => {
             if (!readOnly && liveDraft === null) setDraft({ text: shown, base: props.value });

@@ -82,7 +82,7 @@ function DiodeForm({ spec, onChange, readOnly, testId }: { spec: DiodeSpec; onCh
 }
 
 function PartIdField({ value, onCommit, readOnly }: { value: string | null | undefined; onCommit: (v: string | undefined) => void; readOnly: boolean }) {
-  return <TextCommitInput label="Part reference (optional)" value={value ?? undefined} onCommit={onCommit} read={readPartId} readOnly={readOnly} placeholder="e.g. a catalogue id" />;
+  return <TextCommitInput label="Part reference (optional)" value={value ?? undefined} onCommit={onCommit} read={readPartId} readOnly={readOnly} placeholder={readOnly ? undefined : 'e.g. a catalogue id'} />;
 }
 
 type Of<K extends DesignBlock['kind']> = Extract<DesignBlock, { kind: K }>;
