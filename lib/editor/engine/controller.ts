@@ -10,7 +10,8 @@
  *   estimate take milliseconds, so it is always free for the next edit);
  * - the solve worker runs a synchronous solve and cannot be interrupted, so when a newer
  *   document arrives while it is busy (solve or warm-up) it is terminated and a spare worker,
- *   started in advance with the engine already loaded, takes the new job. The spare is started
+ *   started in advance with the engine loaded and primed by one small solve, takes the new
+ *   job. The spare is started
  *   when a solve hands over to its warm-up and after every replacement, not at page load,
  *   where it would compete with the first estimate for the CPU.
  * An edit that only moves blocks starts no job: the circuit is the same, so the results carry
@@ -195,10 +196,17 @@ export class EngineController {
       if (this.snapshot.warmupPending) this.set({ ...this.snapshot, warmupPending: false });
     }
     const worker = (this.solveWorker ??= this.spawn('solve'));
-    if (replaced) this.spare ??= this.spawn('solve');
+    if (replaced) this.startSpare();
     this.solveBusy = job;
     this.jobs.solve.set(job.id, job);
     worker.postMessage({ type: 'solve', version: job.id, document: job.document, warmup: this.warmup });
+  }
+
+  /** Start a spare solve worker (if there is none) and have it prime itself with a small solve. */
+  private startSpare(): void {
+    if (this.spare) return;
+    this.spare = this.spawn('solve');
+    this.spare.postMessage({ type: 'prime', version: 0 });
   }
 
   private spawn(role: 'compile' | 'solve'): EngineWorker {
@@ -270,7 +278,7 @@ export class EngineController {
         });
         if (!this.warmup) this.solveDone(job);
         // The warm-up keeps this worker busy for a while: have a spare ready for the next edit.
-        else if (!this.disposed) this.spare ??= this.spawn('solve');
+        else if (!this.disposed) this.startSpare();
         return;
       case 'warmup':
         this.solveDone(job);

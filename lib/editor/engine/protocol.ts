@@ -23,6 +23,8 @@ const version = z.int().nonnegative();
 export const engineRequestSchema = z.discriminatedUnion('type', [
   z.object({ type: z.literal('compile'), version, document: designDocumentSchema }),
   z.object({ type: z.literal('solve'), version, document: designDocumentSchema, warmup: z.boolean().default(true) }),
+  /** Run one small solve so the engine's code is compiled by the JavaScript engine before a real job arrives. */
+  z.object({ type: z.literal('prime'), version }),
 ]);
 export type EngineRequest = z.input<typeof engineRequestSchema>;
 export type ParsedEngineRequest = z.output<typeof engineRequestSchema>;
@@ -40,6 +42,7 @@ export type EngineReply =
   | { type: 'solved'; version: number; solve: SolveView; timings: WorkerTimings }
   | { type: 'warmup'; version: number; warmup: NonNullable<SolveView['warmup']> | null; reason?: string; timings: WorkerTimings }
   | { type: 'cannot-solve'; version: number; reason: string; timings: WorkerTimings }
+  | { type: 'primed'; version: number; timings: WorkerTimings }
   /** The request itself was malformed (names the first bad field). */
   | { type: 'invalid'; version: number | null; reason: string };
 

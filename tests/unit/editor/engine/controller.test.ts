@@ -37,7 +37,10 @@ describe('engine controller scheduling', () => {
   let controller: EngineController;
   const of = (role: 'compile' | 'solve') => workers.filter((w) => w.role === role);
   /** The worker that holds the role's current job (a spare solve worker has no messages yet). */
-  const live = (role: 'compile' | 'solve') => of(role).filter((w) => !w.terminated && w.sent.length > 0).at(-1) as FakeWorker;
+  const live = (role: 'compile' | 'solve') => of(role).filter((w) => !w.terminated && w.sent.some((m) => m.type === role)).at(-1) as FakeWorker;
+  /** Requests of real work a worker got (a spare's priming left out). */
+  const jobsOf = (w: FakeWorker) => w.sent.filter((m) => m.type !== 'prime') as Extract<EngineRequest, { document: unknown }>[];
+  const PRIME = { type: 'prime', version: 0 };
 
   beforeEach(() => {
     vi.useFakeTimers();
@@ -105,12 +108,13 @@ describe('engine controller scheduling', () => {
     const second = live('solve');
     expect(second).not.toBe(first);
     expect(second.sent).toEqual([expect.objectContaining({ type: 'solve', document: doc2 })]);
-    // After a replacement a spare stands by.
-    expect(of('solve').map((w) => [w.terminated, w.sent.length])).toEqual([
+    // After a replacement a spare stands by, priming itself with a small solve.
+    expect(of('solve').map((w) => [w.terminated, jobsOf(w).length])).toEqual([
       [true, 1],
       [false, 1],
       [false, 0],
     ]);
+    expect(of('solve')[2].sent).toEqual([PRIME]);
     // The compile worker is not restarted: it was idle and takes the new job.
     expect(of('compile')).toHaveLength(1);
     expect(live('compile').sent).toHaveLength(2);
@@ -130,11 +134,15 @@ describe('engine controller scheduling', () => {
     first.reply({ type: 'solved', version: id, solve: aSolve, timings: {} });
     expect(of('solve')).toHaveLength(2); // the spare, started as the warm-up begins
     const spare = of('solve')[1];
-    expect(spare.sent).toEqual([]);
+    expect(spare.sent).toEqual([PRIME]);
+    // Its priming reply is no job of the editor's and changes nothing.
+    const before = controller.getSnapshot();
+    spare.reply({ type: 'primed', version: 0, timings: { solveMs: 80 } });
+    expect(controller.getSnapshot()).toBe(before);
     controller.update(halfWaveStarter(3, O), 2);
     vi.advanceTimersByTime(12);
     expect(first.terminated).toBe(true);
-    expect(spare.sent).toEqual([expect.objectContaining({ type: 'solve', document: halfWaveStarter(3, O) })]);
+    expect(spare.sent).toEqual([PRIME, expect.objectContaining({ type: 'solve', document: halfWaveStarter(3, O) })]);
     // The old warm-up will not come: the shown (older) solve is no longer waiting for one.
     expect(controller.getSnapshot()).toMatchObject({ solvedVersion: 1, warmupPending: false, status: 'compiling' });
     expect(of('solve')).toHaveLength(3);
@@ -154,7 +162,7 @@ describe('engine controller scheduling', () => {
     // An older compile is shown (marked by compiledVersion) but the status stays "compiling".
     expect(controller.getSnapshot()).toMatchObject({ compiledVersion: 1, currentVersion: 3, status: 'compiling' });
     expect(cw.sent).toHaveLength(2);
-    expect(cw.sent[1].document).toEqual(halfWaveStarter(3, O));
+    expect(jobsOf(cw)[1].document).toEqual(halfWaveStarter(3, O));
   });
 
   it('starts no job for an edit that only moves blocks; the results carry over to the new version', () => {

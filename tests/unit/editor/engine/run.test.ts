@@ -15,7 +15,7 @@ import {
   symmetricStarter,
   type DesignDocument,
 } from '@/lib/circuit';
-import { handleEngineRequest, warmupAfterSolve } from '@/lib/editor/engine/run';
+import { handleEngineRequest, primeDocument, warmupAfterSolve } from '@/lib/editor/engine/run';
 import type { EngineReply } from '@/lib/editor/engine/protocol';
 import { netlistTextOf } from '@/lib/editor/engine/netlist-text';
 
@@ -117,6 +117,15 @@ describe('solve request (2-stage half-wave)', () => {
     // A 2-stage ladder charges within tens of cycles (REFERENCES §6 order of magnitude n²).
     expect(w.warmup.cycles90).toBeGreaterThan(1);
     expect(w.warmup.cycles90).toBeLessThan(100);
+  });
+
+  it('primes a worker with one small solve and says so', () => {
+    const [reply, ...rest] = run({ type: 'prime', version: 0 });
+    expect(rest).toEqual([]);
+    expect(reply).toMatchObject({ type: 'primed', version: 0 });
+    expect(reply.type === 'primed' && reply.timings.solveMs).toBeGreaterThan(0);
+    // The priming circuit really runs the solver (it solves, it is not rejected early).
+    expect(run({ type: 'solve', version: 1, document: primeDocument(), warmup: false })[0].type).toBe('solved');
   });
 
   it('has no warm-up for a solve without an AC drive', () => {
