@@ -6,6 +6,8 @@
  * f p n u m k meg g t, case-insensitive. Two spellings that SPICE reads silently but that a
  * designer almost never means are refused with a reason instead: a bare upper-case `M` (SPICE
  * reads milli, people mean mega) and a lone `F` in a capacitance field (SPICE reads femto).
+ * The letter-as-decimal-point code printed on parts (IEC 60062 "RKM" code, from memory:
+ * `4k7` = 4.7 k, `2n2` = 2.2 n, `1meg5` = 1.5 meg) is read too.
  * Nothing here is used for computation.
  */
 import { formatEngineering, parseEngineering } from '@/lib/circuit';
@@ -19,8 +21,11 @@ export const REASON_NOT_A_NUMBER = 'not a number';
 export const REASON_SUFFIX = 'use k, meg, m, u, n, p… after the number';
 export const REASON_UPPER_M = 'M reads as milli in SPICE notation: write meg for mega, m for milli';
 export const REASON_LONE_F = 'a lone F reads as femto: write the prefix, e.g. 4.7nF, or 10fF for femtofarads';
+export const REASON_COMMA = 'use a point for decimals (4.7n, not 4,7n)';
 
 const NUMBER_HEAD_RE = /^([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*)$/;
+/** IEC 60062 letter-as-decimal-point: integer part, scale letter(s), fraction digits, optional unit. */
+const RKM_RE = /^([+-]?\d+)(meg|[fpnuµμmkgt])(\d+)(.*)$/i;
 const SCALE_LETTERS = new Set(['f', 'p', 'n', 'u', 'µ', 'μ', 'm', 'k', 'g', 't']);
 
 /** Spellings accepted after the scale for each unit the editor's fields use (lower case). */
@@ -48,13 +53,19 @@ function isUnitTail(tail: string, unit: string): boolean {
  * Read a value typed into a field whose unit is `unit` (`'F'`, `'Ω'`, `'V'`, `'A'`, `'Hz'`,
  * `'s'`, `'W'`, `'°'`, `'%'` or `''` for a plain number). Accepts an optional scale letter and
  * the unit, with or without a space: `4.7n`, `4.7nF`, `4.7 nF`, `25k`, `25kΩ`, `25kohm`,
- * `1.2meg`, `40 kHz`, `1e-3`. Returns the SI value, or a reason: {@link REASON_EMPTY},
+ * `1.2meg`, `40 kHz`, `1e-3`, `4k7`. Returns the SI value, or a reason: {@link REASON_EMPTY},
  * {@link REASON_NOT_A_NUMBER}, {@link REASON_SUFFIX} (with the unit), {@link REASON_UPPER_M},
- * {@link REASON_LONE_F}.
+ * {@link REASON_LONE_F}, {@link REASON_COMMA}.
  */
 export function parseQuantity(text: string, unit: string): ParsedQuantity {
   const trimmed = text.trim();
   if (trimmed === '') return { ok: false, reason: REASON_EMPTY };
+  if (/^[+-]?\d*,\d/.test(trimmed)) return { ok: false, reason: REASON_COMMA };
+  const rkm = RKM_RE.exec(trimmed);
+  if (rkm) {
+    const [, whole, scale, fraction, unitTail] = rkm;
+    return parseQuantity(`${whole}.${fraction}${scale}${unitTail}`, unit);
+  }
   const m = NUMBER_HEAD_RE.exec(trimmed);
   if (!m) return { ok: false, reason: REASON_NOT_A_NUMBER };
   const [, number, suffix] = m;

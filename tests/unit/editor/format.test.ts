@@ -5,6 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import {
+  REASON_COMMA,
   REASON_EMPTY,
   REASON_LONE_F,
   REASON_NOT_A_NUMBER,
@@ -95,6 +96,24 @@ describe('parseQuantity', () => {
     // SPICE reads a lone F as femto; "2.2F" in a capacitance field is ambiguous.
     expect(reason('2.2F', 'F')).toBe(REASON_LONE_F);
     expect(reason('2.2f', 'F')).toBe(REASON_LONE_F);
+  });
+});
+
+describe('letter-as-decimal-point code (IEC 60062 RKM code, from memory)', () => {
+  it('reads 4k7, 2n2, 1meg5 as printed on parts', () => {
+    expect(value('4k7', 'Ω')).toBe(4.7e3);
+    expect(value('4k7Ω', 'Ω')).toBe(4.7e3);
+    expect(value('2n2', 'F')).toBe(2.2e-9);
+    expect(value('2n2F', 'F')).toBe(2.2e-9);
+    expect(value('1meg5', 'Ω')).toBe(1.5e6);
+    expect(value('4u7', 'F')).toBe(4.7e-6);
+    // An upper-case M in the middle is as ambiguous as at the end.
+    expect(reason('4M7', 'Ω')).toBe(REASON_UPPER_M);
+    expect(reason('4k7x', 'Ω')).toContain(REASON_SUFFIX);
+  });
+  it('asks for a decimal point instead of a comma', () => {
+    expect(reason('4,7n', 'F')).toBe(REASON_COMMA);
+    expect(reason(',5', 'F')).toBe(REASON_COMMA);
   });
 });
 
