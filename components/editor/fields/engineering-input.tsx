@@ -101,6 +101,7 @@ export function EngineeringInput(props: EngineeringInputProps) {
           readOnly={readOnly}
           value={liveDraft ?? shown}
           placeholder={props.optional ? (readOnly ? '—' : 'not set') : undefined}
+          title={readOnly ? undefined : `Engineering notation, e.g. 4.7n, 25k, 1.2meg, 4k7${unit ? ` (unit ${unit} optional)` : ''}; Enter applies, Esc reverts`}
           onChange={(e) => setDraft({ text: e.target.value, base: props.value })}
           onFocus={() => {
             if (!readOnly && liveDraft === null) setDraft({ text: shown, base: props.value });
