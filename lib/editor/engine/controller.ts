@@ -11,9 +11,8 @@
  * - the solve worker runs a synchronous solve and cannot be interrupted, so when a newer
  *   document arrives while it is busy (solve or warm-up) it is terminated and a spare worker,
  *   started in advance with the engine loaded and primed by one small solve, takes the new
- *   job. The spare is started
- *   when a solve hands over to its warm-up and after every replacement, not at page load,
- *   where it would compete with the first estimate for the CPU.
+ *   job. The spare is started when a solve hands over to its warm-up, never while a solve
+ *   the editor waits for is running: loading and priming it would take CPU from that solve.
  * An edit that only moves blocks starts no job: the circuit is the same, so the results carry
  * over to the new version. Jobs carry their own increasing ids, so late replies of an older job are never mistaken for
  * the current one even if the editor's version counter restarts.
@@ -185,7 +184,6 @@ export class EngineController {
   }
 
   private sendSolve(job: Job): void {
-    const replaced = this.solveBusy !== null;
     if (this.solveBusy) {
       // The solver cannot be interrupted: drop that worker with its solve and start afresh.
       this.solveWorker?.terminate();
@@ -195,11 +193,10 @@ export class EngineController {
       this.solveBusy = null;
       if (this.snapshot.warmupPending) this.set({ ...this.snapshot, warmupPending: false });
     }
-    const worker = (this.solveWorker ??= this.spawn('solve'));
-    if (replaced) this.startSpare();
+    this.solveWorker ??= this.spawn('solve');
     this.solveBusy = job;
     this.jobs.solve.set(job.id, job);
-    worker.postMessage({ type: 'solve', version: job.id, document: job.document, warmup: this.warmup });
+    this.solveWorker.postMessage({ type: 'solve', version: job.id, document: job.document, warmup: this.warmup });
   }
 
   /** Start a spare solve worker (if there is none) and have it prime itself with a small solve. */
