@@ -6,10 +6,10 @@
  * chained stages land on the same canvas points. Node data carries only plain values (the block,
  * its fault level, the parts over their derated limit); no functions.
  */
-import { memo, type FocusEvent as ReactFocusEvent, type KeyboardEvent as ReactKeyboardEvent, type PointerEvent as ReactPointerEvent } from 'react';
+import { memo, useEffect, type FocusEvent as ReactFocusEvent, type KeyboardEvent as ReactKeyboardEvent, type PointerEvent as ReactPointerEvent } from 'react';
 import { useStore } from 'zustand';
-import { Handle, Position, type Node, type NodeProps, type NodeTypes } from '@xyflow/react';
-import type { DesignBlock } from '@/lib/circuit/document/schema';
+import { Handle, Position, useUpdateNodeInternals, type Node, type NodeProps, type NodeTypes } from '@xyflow/react';
+import { portsOf, type DesignBlock } from '@/lib/circuit/document/schema';
 import { blockSize, portAnchors, type PortAnchor } from '@/lib/circuit/document/geometry';
 import { portWords } from '@/lib/circuit/document/connect';
 import { formatSi } from '@/lib/client/format';
@@ -98,6 +98,11 @@ function Ports({ block }: { block: DesignBlock }) {
 function Frame({ block, data, selected, children }: { block: DesignBlock; data: BlockNodeData; selected: boolean; children: React.ReactNode }) {
   const hover = useHoverApi();
   const { width, height } = blockSize(block);
+  // A block whose ports change under the same id (half → full-wave, single → two-phase drive)
+  // must have its handles measured again, or its new wires have nowhere to attach.
+  const updateInternals = useUpdateNodeInternals();
+  const ports = portsOf(block).join();
+  useEffect(() => updateInternals(block.id), [updateInternals, block.id, ports]);
   const ring = data.fault === 'error' ? 'kr-block--error' : data.fault === 'warning' ? 'kr-block--warning' : '';
   return (
     <div
@@ -147,7 +152,7 @@ function StageNodeView({ data, selected }: NodeProps<BlockNode>) {
   return (
     <Frame block={block} data={data} selected={selected}>
       <BlockSvg width={width} height={height}>
-        <Title text={`${block.label ?? block.id} ${neg ? '−' : '+'}`} x={width - 6} y={12} anchor="end" />
+        <Title text={/[+−-]/.test(block.label ?? '') ? (block.label ?? block.id) : `${block.label ?? block.id} ${neg ? '−' : '+'}`} x={width - 6} y={12} anchor="end" />
         {/* driven column */}
         <PartOnSegment shape="capacitor" from={p.xIn} to={jx} label={capLabel(d.pumpC.capacitanceF)} labelSide={-1} fault={over.has('pumpC')} testId="sym-pumpC" />
         <Lead points={[jx, p.xOut]} />

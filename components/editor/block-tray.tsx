@@ -72,7 +72,7 @@ function Thumb({ item }: { item: TrayItemKey }) {
 /** The tray; `onAdd` places an item at the view centre (keyboard and click). */
 export function BlockTray({ onAdd }: { onAdd: (item: TrayItemKey) => void }) {
   return (
-    <nav aria-label="Blocks tray" className="space-y-3" data-testid="block-tray">
+    <nav aria-label="Blocks tray" className="space-y-3" data-testid="tray">
       <p className="text-xs text-ink-400">Drag onto the canvas, or press to place at the middle of the view.</p>
       {GROUPS.map((g) => (
         <section key={g.key} aria-label={g.title}>

@@ -284,7 +284,8 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
     async (format: 'png' | 'svg') => {
       const box = canvasBox.current;
       if (!box) return;
-      const res = await drawingDataUrl(box, flow.getNodes(), format);
+      const nodes = flow.getNodes();
+      const res = await drawingDataUrl(box, nodes.length ? flow.getNodesBounds(nodes) : null, format);
       if (res.ok) downloadDataUrl(`${slug(title)}.${format}`, res.url);
       else setNotice({ tone: 'error', text: res.reason });
     },
@@ -376,7 +377,9 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
     openHelp: () => setHelp(true),
     appendStages: (n) => {
       const r = editor.getState().appendStages(n);
-      if (r.ok) setNotice({ tone: 'info', text: `Added ${n} stage(s).` });
+      if (!r.ok) return;
+      setNotice({ tone: 'info', text: `Added ${n} stage(s).` });
+      window.requestAnimationFrame(() => void flow.fitView({ padding: 0.15, duration: 200 }));
     },
     loadStarter: (kind, n) => {
       const r = editor.getState().loadStarter(kind, n);

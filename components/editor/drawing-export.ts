@@ -4,20 +4,20 @@
  * the bounds of every block (xyflow's `getNodesBounds` + `getViewportForBounds`, the approach of
  * the xyflow docs' "download image" example), on the canvas's own dark ground.
  */
-import { getNodesBounds, getViewportForBounds, type Node } from '@xyflow/react';
+import { getViewportForBounds, type Rect } from '@xyflow/react';
 import { toPng, toSvg } from 'html-to-image';
 
 /** Ground colour of the exported picture (ink-900). */
 const BACKGROUND = '#141a1f';
 
 /**
- * Renders the drawing inside `container` (the canvas wrapper) to a data URL. The picture is at
- * most 2400 px on its long side and never magnifies more than 2×.
+ * Renders the drawing inside `container` (the canvas wrapper), framed on `bounds` (the flow's
+ * `getNodesBounds` of every node), to a data URL. The picture is at most 2400 px on its long side
+ * and never magnifies more than 2×.
  */
-export async function drawingDataUrl(container: HTMLElement, nodes: Node[], format: 'png' | 'svg'): Promise<{ ok: true; url: string } | { ok: false; reason: string }> {
+export async function drawingDataUrl(container: HTMLElement, bounds: Rect | null, format: 'png' | 'svg'): Promise<{ ok: true; url: string } | { ok: false; reason: string }> {
   const viewport = container.querySelector<HTMLElement>('.react-flow__viewport');
-  if (!viewport || nodes.length === 0) return { ok: false, reason: 'There is nothing on the canvas to export.' };
-  const bounds = getNodesBounds(nodes);
+  if (!viewport || !bounds) return { ok: false, reason: 'There is nothing on the canvas to export.' };
   const long = 2400;
   const aspect = (bounds.width + 80) / Math.max(bounds.height + 80, 1);
   const width = Math.round(aspect >= 1 ? long : long * aspect);
