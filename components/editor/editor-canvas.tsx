@@ -22,43 +22,24 @@ import {
   type NodeChange,
 } from '@xyflow/react';
 import type { DesignBlock, DesignDocument } from '@/lib/circuit/document/schema';
-import { blockSize, portPosition } from '@/lib/circuit/document/geometry';
+import { blockSize } from '@/lib/circuit/document/geometry';
 import type { TrayItemKey } from '@/lib/circuit/document/tray';
 import { formatSi } from '@/lib/client/format';
 import type { EngineSnapshot, PortKey } from '@/lib/editor/types';
 import { BLOCK_NODE_TYPES, type BlockNode } from './block-nodes';
+import { applySelect, blockFaults, dcLabelPlacements, type Fault } from './canvas-model';
 import { useHoverApi } from './hover-store';
 import { useEditor, useEditorApi } from './store-context';
 
 /** The drag-and-drop payload type of a tray item. */
 export const TRAY_MIME = 'application/x-kilorung-tray';
 
-type Fault = 'error' | 'warning';
-
 /** Worst diagnostic per block, and the roles of each block's parts past their derated limit. */
 function useFaults(snapshot: EngineSnapshot) {
-  return useMemo(() => {
-    const faults = new Map<string, Fault>();
-    for (const d of snapshot.compile?.diagnostics ?? []) {
-      if (!d.blockId || d.severity === 'info') continue;
-      if (d.severity === 'error' || !faults.has(d.blockId)) faults.set(d.blockId, d.severity);
-    }
-    const over = new Map<string, string[]>();
-    for (const p of snapshot.solve?.parts ?? []) {
-      if (p.status !== 'over') continue;
-      over.set(p.blockId, [...(over.get(p.blockId) ?? []), p.role]);
-    }
-    return { faults, over };
-  }, [snapshot.compile, snapshot.solve]);
+  return useMemo(() => blockFaults(snapshot.compile?.diagnostics ?? [], snapshot.solve?.parts ?? []), [snapshot.compile, snapshot.solve]);
 }
 
 const NO_ROLES: string[] = [];
-
-/** The selection after xyflow's select changes: `drop` leaves, `add` joins. */
-function applySelect(current: string[], add: string[], drop: string[]): string[] {
-  const gone = new Set(drop);
-  return [...new Set([...current.filter((id) => !gone.has(id)), ...add])];
-}
 
 /**
  * Last node built for each block object. Documents are immutable and an edit replaces only the
@@ -115,24 +96,7 @@ function useEdges(document: DesignDocument, selectedWires: string[]): Edge[] {
 
 /** The DC level written at one port of every net (toggle in the toolbar). */
 function DcLabels({ snapshot, document }: { snapshot: EngineSnapshot; document: DesignDocument }) {
-  const labels = useMemo(() => {
-    const nodes = snapshot.solve?.nodes;
-    if (!nodes) return [];
-    const byId = new Map(document.blocks.map((b) => [b.id, b] as const));
-    const out: { node: string; x: number; y: number; meanV: number }[] = [];
-    for (const r of Object.values(nodes)) {
-      for (const key of r.ports) {
-        const i = key.indexOf(':');
-        const block = byId.get(key.slice(0, i));
-        const at = block ? portPosition(block, key.slice(i + 1)) : null;
-        if (at) {
-          out.push({ node: r.node, x: at.x, y: at.y, meanV: r.meanV });
-          break;
-        }
-      }
-    }
-    return out;
-  }, [snapshot.solve, document.blocks]);
+  const labels = useMemo(() => dcLabelPlacements(snapshot.solve, document), [snapshot.solve, document]);
   const stale = snapshot.solvedVersion !== snapshot.currentVersion;
   return (
     <ViewportPortal>

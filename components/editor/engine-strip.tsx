@@ -6,19 +6,7 @@
  */
 import type { Diagnostic } from '@/lib/circuit/compile/diagnostics';
 import type { EngineSnapshot } from '@/lib/editor/types';
-
-/** The engine status as the canvas shows it (also the `data-status` of `engine-status`). */
-export type CanvasEngineStatus = 'idle' | 'solving' | 'solved' | 'out-of-date' | 'cannot-solve';
-
-/** Maps the snapshot to one status: a result of an older edit on screen is "out of date". */
-export function canvasStatus(s: EngineSnapshot): { status: CanvasEngineStatus; text: string } {
-  if (s.status === 'cannot-solve') return { status: 'cannot-solve', text: `Cannot solve: ${s.reason ?? 'the drawing does not compile'}` };
-  if (s.status === 'idle') return { status: 'idle', text: 'Waiting for the first compile' };
-  if (s.status === 'compiling') return { status: 'out-of-date', text: 'Out of date: compiling the latest edit' };
-  if (s.status === 'solving') return { status: 'solving', text: 'Estimate current · solving…' };
-  if (s.solvedVersion !== s.currentVersion) return { status: 'out-of-date', text: 'Out of date: the shown solve is of an older edit' };
-  return { status: 'solved', text: s.warmupPending ? 'Solved · warm-up running' : 'Solved' };
-}
+import { canvasStatus, type CanvasEngineStatus } from './canvas-model';
 
 const STATUS_CLASS: Record<CanvasEngineStatus, string> = {
   idle: 'border-ink-600 text-ink-200',

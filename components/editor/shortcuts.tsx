@@ -4,6 +4,7 @@
  * the sheet can never list a key that does nothing, or miss one that does something).
  */
 import { useEffect, useRef } from 'react';
+import { chordMatches } from './canvas-model';
 
 export type ShortcutAction =
   | 'undo'
@@ -56,20 +57,6 @@ export const CANVAS_KEYS: { keys: string[]; what: string }[] = [
   { keys: ['Mouse wheel', 'drag the ground'], what: 'Zoom and pan' },
 ];
 
-function matches(e: KeyboardEvent, key: string): boolean {
-  const parts = key.split('+');
-  const main = parts[parts.length - 1];
-  const ctrl = parts.includes('Ctrl');
-  const shift = parts.includes('Shift');
-  if ((e.ctrlKey || e.metaKey) !== ctrl) return false;
-  if (main.length === 1 && /[A-Z]/.test(main)) {
-    if (e.shiftKey !== shift) return false;
-    return e.key.toLowerCase() === main.toLowerCase();
-  }
-  // Punctuation keys (?, +, -) arrive with whatever Shift the layout needs.
-  return e.key === main;
-}
-
 function typingInto(target: EventTarget | null): boolean {
   if (!(target instanceof HTMLElement)) return false;
   if (target.isContentEditable) return true;
@@ -97,7 +84,7 @@ export function useShortcuts(enabled: boolean, handlers: Partial<Record<Shortcut
       if (e.defaultPrevented || typingInto(e.target)) return;
       if (e.target instanceof HTMLElement && e.target.closest('dialog[open]')) return;
       for (const s of SHORTCUTS) {
-        if (!s.keys.some((k) => matches(e, k))) continue;
+        if (!s.keys.some((k) => chordMatches(e, k))) continue;
         if (s.action === 'copy' && (window.getSelection()?.toString() ?? '') !== '') return;
         const h = ref.current[s.action];
         if (!h) return;
