@@ -6,7 +6,7 @@
  * edits unless the design is read-only for this user. In `revision` mode it shows an older
  * revision, read-only.
  */
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { memo, useCallback, useEffect, useRef, useState } from 'react';
 import { ReactFlowProvider, useReactFlow } from '@xyflow/react';
 import { useQueryClient } from '@tanstack/react-query';
 import type { DesignBlock, DesignDocument } from '@/lib/circuit/document/schema';
@@ -30,6 +30,11 @@ import { HoverLayer } from './hover-layer';
 import { HoverContext, createHoverStore } from './hover-store';
 import { HelpSheet, useShortcuts } from './shortcuts';
 import { EditorStoreProvider, useEditor, useEditorApi } from './store-context';
+
+// The panel and the list change only when the engine posts a result: a drag (a new document on
+// every pointer move) must not redraw their tables and plots.
+const ResultsPanelMemo = memo(ResultsPanel);
+const DiagnosticsListMemo = memo(DiagnosticsList);
 
 /** Autosave waits this long after the last edit before writing (ms). */
 const AUTOSAVE_DELAY_MS = 800;
@@ -462,30 +467,32 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
 
       <div className={`grid gap-3 ${readOnly ? 'lg:grid-cols-[1fr_26rem]' : 'lg:grid-cols-[11rem_1fr_26rem]'}`}>
         {!readOnly ? (
-          <aside className="max-h-[72vh] overflow-y-auto rounded-lg border border-ink-800 bg-ink-800/40 p-2">
+          <aside className="max-h-[78vh] overflow-y-auto rounded-lg border border-ink-800 bg-ink-800/40 p-2">
             <BlockTray onAdd={addAtCentre} />
           </aside>
         ) : null}
-        <div className="relative h-[72vh] min-h-[28rem] overflow-hidden rounded-lg border border-ink-800" ref={canvasBox}>
-          <EditorCanvas snapshot={snapshot} showDcLabels={dcLabels} />
-          {lastRefusal ? (
-            <div role="alert" data-testid="refusal-message" className="absolute left-1/2 top-3 z-10 flex max-w-[90%] -translate-x-1/2 items-start gap-2 rounded-md border border-hazard-700 bg-ink-900/95 px-3 py-2 text-sm text-hazard-100 shadow-lg">
-              <span>{lastRefusal}</span>
-              <button type="button" onClick={() => editor.getState().clearRefusal()} className="rounded px-1 text-ink-400 hover:text-ink-100" aria-label="Dismiss">
-                ×
-              </button>
-            </div>
-          ) : null}
+        <div className="min-w-0 space-y-2">
+          <div className="relative h-[66vh] min-h-[28rem] overflow-hidden rounded-lg border border-ink-800" ref={canvasBox}>
+            <EditorCanvas snapshot={snapshot} showDcLabels={dcLabels} />
+            {lastRefusal ? (
+              <div role="alert" data-testid="refusal-message" className="absolute left-1/2 top-3 z-10 flex max-w-[90%] -translate-x-1/2 items-start gap-2 rounded-md border border-hazard-700 bg-ink-900/95 px-3 py-2 text-sm text-hazard-100 shadow-lg">
+                <span>{lastRefusal}</span>
+                <button type="button" onClick={() => editor.getState().clearRefusal()} className="rounded px-1 text-ink-400 hover:text-ink-100" aria-label="Dismiss">
+                  ×
+                </button>
+              </div>
+            ) : null}
+          </div>
+          <section aria-label="Diagnostics" className="max-h-40 overflow-y-auto rounded-lg border border-ink-800 bg-ink-800/40 px-3 py-2">
+            <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-400">Diagnostics</h3>
+            <DiagnosticsListMemo snapshot={snapshot} onFocusBlock={focusBlock} />
+          </section>
         </div>
-        <aside className="max-h-[72vh] space-y-3 overflow-y-auto rounded-lg border border-ink-800 bg-ink-800/40 p-3" aria-label="Inspector and results">
+        <aside className="max-h-[78vh] space-y-3 overflow-y-auto rounded-lg border border-ink-800 bg-ink-800/40 p-3" aria-label="Inspector and results">
           <section aria-label="Inspector">
             <SelectionInspector />
           </section>
-          <section aria-label="Diagnostics">
-            <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-400">Diagnostics</h3>
-            <DiagnosticsList snapshot={snapshot} onFocusBlock={focusBlock} />
-          </section>
-          <ResultsPanel snapshot={snapshot} selectedNodes={selectedNodes} onSelectNodes={setSelectedNodes} onFocusBlock={focusBlock} />
+          <ResultsPanelMemo snapshot={snapshot} selectedNodes={selectedNodes} onSelectNodes={setSelectedNodes} onFocusBlock={focusBlock} />
         </aside>
       </div>
       <HoverLayer snapshot={snapshot} document={document} />
