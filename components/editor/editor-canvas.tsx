@@ -6,7 +6,7 @@
  * truth and xyflow only renders it. Tray items can be dropped here (HTML5 drag); the pointer
  * over a port, a wire or a block body feeds the hover card.
  */
-import { useCallback, useMemo, type DragEvent } from 'react';
+import { useCallback, useMemo, useState, type DragEvent } from 'react';
 import {
   Background,
   BackgroundVariant,
@@ -132,6 +132,9 @@ export function EditorCanvas({ snapshot, showDcLabels }: EditorCanvasProps) {
   const { faults, over } = useFaults(snapshot);
   const nodes = useNodes(document, selection.blocks, faults, over, readOnly);
   const edges = useEdges(document, selection.wires);
+  // Fit the view once, to a drawing that is already there when the editor opens: on an empty
+  // canvas xyflow would otherwise zoom in to 3× on the first block dropped.
+  const [fitOnOpen] = useState(() => document.blocks.length > 0);
 
   const onNodesChange = useCallback(
     (changes: NodeChange<BlockNode>[]) => {
@@ -225,7 +228,7 @@ export function EditorCanvas({ snapshot, showDcLabels }: EditorCanvasProps) {
         multiSelectionKeyCode={['Control', 'Meta']}
         minZoom={0.1}
         maxZoom={3}
-        fitView
+        fitView={fitOnOpen}
         fitViewOptions={{ padding: 0.15 }}
         attributionPosition="top-right"
         colorMode="dark"
