@@ -78,6 +78,11 @@ function useNodes(document: DesignDocument, selectedBlocks: string[], faults: Ma
   }, [document.blocks, selectedBlocks, faults, over, readOnly]);
 }
 
+// Wire colours as inline styles (not only CSS classes): the PNG/SVG export copies an SVG path's
+// own attributes, not the stylesheet, so a class-only stroke would leave the wires out.
+const WIRE = { stroke: '#c9d1d7', strokeWidth: 1.8 };
+const WIRE_SELECTED = { stroke: '#2fa69b', strokeWidth: 2.6 };
+
 function useEdges(document: DesignDocument, selectedWires: string[]): Edge[] {
   return useMemo(() => {
     const selected = new Set(selectedWires);
@@ -89,6 +94,7 @@ function useEdges(document: DesignDocument, selectedWires: string[]): Edge[] {
       targetHandle: w.targetPort,
       type: 'step',
       selected: selected.has(w.id),
+      style: selected.has(w.id) ? WIRE_SELECTED : WIRE,
       ariaLabel: `wire ${w.source} ${w.sourcePort} to ${w.target} ${w.targetPort}`,
     }));
   }, [document.wires, selectedWires]);
