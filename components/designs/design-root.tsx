@@ -98,7 +98,7 @@ function Revisions({ designId, latest, selected, onSelect }: { designId: string;
 
 /**
  * The design page: header, lineage and actions, the editor (the working copy on the latest
- * revision; an older revision picked in the history opens read-only beside it), revision
+ * revision; an older revision picked in the history opens read-only in its place), revision
  * history, forks and the high-voltage caution.
  */
 export function DesignRoot({ designId }: { designId: string }) {
@@ -177,7 +177,9 @@ export function DesignRoot({ designId }: { designId: string }) {
             canEdit={false}
           />
         ) : null}
-        <div hidden={showing !== null}>
+        {/* One editor at a time (test ids stay unique); leaving the working copy autosaves it, and
+            coming back offers to restore it. */}
+        {showing === null ? (
           <DesignEditor
             key={d.id}
             designId={d.id}
@@ -187,9 +189,8 @@ export function DesignRoot({ designId }: { designId: string }) {
             mode="working"
             canEdit={p.edit && !d.archived}
             readOnlyReason={d.archived ? 'archived' : 'role'}
-            active={showing === null}
           />
-        </div>
+        ) : null}
       </div>
 
       <div className="grid gap-5 lg:grid-cols-[1fr_20rem]">

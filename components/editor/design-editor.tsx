@@ -104,6 +104,9 @@ function useAutosave(enabled: boolean, designId: string, baseRevision: number, i
     return () => {
       unsub();
       if (timer) clearTimeout(timer);
+      // Leaving the editor (another revision picked, page left) must not lose the last edits.
+      const now = editor.getState();
+      if (!pending.current && now.dirty) writeWorkingCopy(window.localStorage, designId, { baseRevision: base.current, savedAt: new Date().toISOString(), document: now.document });
     };
   }, [enabled, designId, editor]);
   const restore = useCallback(() => {
