@@ -11,6 +11,7 @@ import type { EngineSnapshot, NodeReading, PortKey } from '@/lib/editor/types';
 import { NodeReadingCard } from './panel/node-reading-card';
 import { PartStressCard } from './panel/part-stress-card';
 import { useHoverApi } from './hover-store';
+import { useEditor } from './store-context';
 
 function Placed({ x, y, children }: { x: number; y: number; children: React.ReactNode }) {
   // Keep the card inside the window: flip to the left/top of the pointer near the far edges.
@@ -39,8 +40,12 @@ export function HoverLayer({ snapshot, document }: { snapshot: EngineSnapshot; d
   const blockId = useStore(hover, (s) => s.block);
   const x = useStore(hover, (s) => s.x);
   const y = useStore(hover, (s) => s.y);
-  if (port) return <Placed x={x} y={y}>{nodeCard(snapshot, port)}</Placed>;
-  if (blockId) {
+  // No card while dragging (it would trail the block), nor for a block deleted under the pointer.
+  const dragging = useEditor((s) => s.gestureStart !== null);
+  if (dragging) return null;
+  const exists = (id: string) => document.blocks.some((b) => b.id === id);
+  if (port && exists(port.slice(0, port.indexOf(':')))) return <Placed x={x} y={y}>{nodeCard(snapshot, port)}</Placed>;
+  if (blockId && exists(blockId)) {
     const stresses = snapshot.solve?.parts.filter((p) => p.blockId === blockId) ?? [];
     if (stresses.length === 0) return null;
     const block = document.blocks.find((b) => b.id === blockId);
