@@ -72,6 +72,18 @@ export class TeamDesignsPage {
     await expect(this.page.getByTestId('design-title')).toHaveText(opts.title);
     return new URL(this.page.url()).pathname.split('/').pop() as string;
   }
+  /** A design with nothing drawn, to be built from the tray. */
+  async createBlankDesign(title: string): Promise<string> {
+    await this.page.getByTestId('new-design').click();
+    const dialog = this.page.getByTestId('new-design-dialog');
+    await expect(dialog).toBeVisible();
+    await dialog.getByLabel('Title').fill(title);
+    await dialog.getByTestId('starter-blank').check({ force: true });
+    await dialog.getByTestId('new-design-submit').click();
+    await expect(this.page).toHaveURL(/\/designs\/[0-9a-f-]{36}$/);
+    await expect(this.page.getByTestId('design-title')).toHaveText(title);
+    return new URL(this.page.url()).pathname.split('/').pop() as string;
+  }
   async openDesign(title: string) {
     await this.page.getByTestId('design-link').filter({ hasText: title }).first().click();
     await expect(this.page.getByTestId('design-title')).toHaveText(title);
