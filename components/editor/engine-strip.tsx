@@ -30,6 +30,13 @@ export function TopologyBadge({ snapshot }: { snapshot: EngineSnapshot }) {
   );
 }
 
+/** The engine's own timings as `data-ms-*` attributes, for the canvas benchmark (scripts/bench-canvas.ts). */
+function timingAttributes(s: EngineSnapshot): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const [k, v] of Object.entries(s.timings)) if (typeof v === 'number' && Number.isFinite(v)) out[`data-ms-${k.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`)}`] = v.toFixed(1);
+  return out;
+}
+
 export function EngineStatusPill({ snapshot }: { snapshot: EngineSnapshot }) {
   const { status, text } = canvasStatus(snapshot);
   const busy = status === 'solving' || (status === 'out-of-date' && snapshot.status === 'compiling');
@@ -37,6 +44,10 @@ export function EngineStatusPill({ snapshot }: { snapshot: EngineSnapshot }) {
     <span
       data-testid="engine-status"
       data-status={status}
+      data-current-version={snapshot.currentVersion}
+      data-compiled-version={snapshot.compiledVersion ?? ''}
+      data-solved-version={snapshot.solvedVersion ?? ''}
+      {...timingAttributes(snapshot)}
       role="status"
       aria-live="polite"
       className={`inline-flex max-w-full items-center gap-1.5 rounded-full border px-2.5 py-0.5 text-xs ${STATUS_CLASS[status]}`}
