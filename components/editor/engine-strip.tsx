@@ -47,6 +47,7 @@ export function EngineStatusPill({ snapshot }: { snapshot: EngineSnapshot }) {
       data-current-version={snapshot.currentVersion}
       data-compiled-version={snapshot.compiledVersion ?? ''}
       data-solved-version={snapshot.solvedVersion ?? ''}
+      data-warmup-pending={snapshot.warmupPending ? 'true' : 'false'}
       {...timingAttributes(snapshot)}
       role="status"
       aria-live="polite"
