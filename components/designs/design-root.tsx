@@ -175,6 +175,7 @@ export function DesignRoot({ designId }: { designId: string }) {
             document={other.data.revision.document}
             mode="revision"
             canEdit={false}
+            canFork={p.fork}
           />
         ) : null}
         {/* One editor at a time (test ids stay unique); leaving the working copy autosaves it, and
@@ -189,6 +190,7 @@ export function DesignRoot({ designId }: { designId: string }) {
             mode="working"
             canEdit={p.edit && !d.archived}
             readOnlyReason={d.archived ? 'archived' : 'role'}
+            canFork={p.fork}
           />
         ) : null}
       </div>

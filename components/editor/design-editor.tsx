@@ -50,6 +50,8 @@ export interface DesignEditorProps {
   canEdit: boolean;
   /** Why editing is off when `canEdit` is false. */
   readOnlyReason?: 'role' | 'archived';
+  /** Whether the user may fork (the read-only banner then points to it). */
+  canFork?: boolean;
   /** Whether this editor takes the keyboard shortcuts (one editor on the page at a time). */
   active?: boolean;
 }
@@ -235,7 +237,7 @@ function SelectionInspector() {
   return <SettingsInspector settings={document.settings} readOnly={readOnly} onChange={(s) => editor.getState().updateSettings(s)} />;
 }
 
-function EditorBody({ designId, title, revisionNumber, document: initialDocument, mode, canEdit, readOnlyReason = 'role', active = true }: DesignEditorProps) {
+function EditorBody({ designId, title, revisionNumber, document: initialDocument, mode, canEdit, readOnlyReason = 'role', canFork = false, active = true }: DesignEditorProps) {
   const editor = useEditorApi();
   const qc = useQueryClient();
   const flow = useReactFlow();
@@ -425,10 +427,10 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
       {readOnly ? (
         <div role="status" data-testid="read-only-banner" className="rounded-md border border-copper-600 bg-copper-800/30 px-3 py-2 text-sm text-copper-100">
           {mode === 'revision'
-            ? `You are looking at r${revisionNumber}, an older revision: it opens read-only. Pick the latest revision to get back to the working copy, or fork from here.`
+            ? `You are looking at r${revisionNumber}, an older revision: it opens read-only. Pick the latest revision to get back to the working copy${canFork ? ', or fork from here' : ''}.`
             : readOnlyReason === 'archived'
-              ? 'Read-only: this design is archived. Unarchive it to edit, or fork it.'
-              : 'Read-only: your role on this team lets you view, hover and export this design, not change it. Fork it to make your own editable copy.'}
+              ? `Read-only: this design is archived. Unarchive it to edit${canFork ? ', or fork it' : ''}.`
+              : `Read-only: your role on this team lets you view, hover and export this design, not change it.${canFork ? ' Fork it to make your own editable copy.' : ''}`}
         </div>
       ) : null}
       {autosave.offer ? (
