@@ -12,8 +12,12 @@ import type { EngineSnapshot, PartStress, SolveView } from '@/lib/editor/types';
 /** The engine status as the canvas shows it (also the `data-status` of `engine-status`). */
 export type CanvasEngineStatus = 'idle' | 'solving' | 'solved' | 'out-of-date' | 'cannot-solve';
 
-/** Maps the snapshot to one status: a result of an older edit on screen is "out of date". */
-export function canvasStatus(s: EngineSnapshot): { status: CanvasEngineStatus; text: string } {
+/**
+ * Maps the snapshot to one status: a result of an older edit on screen is "out of date". An empty
+ * canvas has nothing to solve, whatever the engine last said.
+ */
+export function canvasStatus(s: EngineSnapshot, opts: { empty?: boolean } = {}): { status: CanvasEngineStatus; text: string } {
+  if (opts.empty) return { status: 'idle', text: 'Nothing to solve yet: drag blocks from the tray' };
   if (s.status === 'cannot-solve') return { status: 'cannot-solve', text: `Cannot solve: ${s.reason ?? 'the drawing does not compile'}` };
   if (s.status === 'idle') return { status: 'idle', text: 'Waiting for the first compile' };
   if (s.status === 'compiling') return { status: 'out-of-date', text: 'Out of date: compiling the latest edit' };

@@ -11,7 +11,7 @@ import { ReactFlowProvider, useReactFlow } from '@xyflow/react';
 import { useQueryClient } from '@tanstack/react-query';
 import type { DesignBlock, DesignDocument } from '@/lib/circuit/document/schema';
 import { blockSize } from '@/lib/circuit/document/geometry';
-import type { TrayItemKey } from '@/lib/circuit/document/tray';
+import { createBlock, type TrayItemKey } from '@/lib/circuit/document/tray';
 import { ApiError, api as callApi, formError } from '@/lib/client/api';
 import { formatDateTime } from '@/lib/client/format';
 import { keys, useSaveRevision } from '@/lib/client/hooks';
@@ -282,8 +282,12 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
           const size = blockSize(b);
           return Math.abs(b.position.x + size.width / 2 - p.x) < 12 && Math.abs(b.position.y + size.height / 2 - p.y) < 12;
         });
+      // A stage steps exactly one stage width, so its inputs land on the previous stage's outputs
+      // and snap: pressing a stage item n times builds a chained ladder of n stages.
+      const size = blockSize(createBlock(item, 'probe', { x: 0, y: 0 }));
+      const step = item.startsWith('stage-') ? size.width : size.width + 24;
       let at = c;
-      for (let i = 0; i < 20 && taken(at); i++) at = { x: at.x + 30, y: at.y + 30 };
+      for (let i = 0; i < 40 && taken(at); i++) at = { x: at.x + step, y: at.y };
       const res = editor.getState().addBlock(item, at, 'center');
       if (res.ok) setNotice({ tone: 'info', text: `Placed ${res.id} in the middle of the view.` });
     },
@@ -453,8 +457,8 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
       {saving && !readOnly ? <SaveForm onSave={doSave} onCancel={() => setSaving(false)} pending={save.isPending} /> : null}
 
       <div className="flex flex-wrap items-center gap-2">
-        <TopologyBadge snapshot={snapshot} />
-        <EngineStatusPill snapshot={snapshot} />
+        <TopologyBadge snapshot={snapshot} empty={document.blocks.length === 0} />
+        <EngineStatusPill snapshot={snapshot} empty={document.blocks.length === 0} />
         {working && !readOnly ? (
           <span className="text-xs text-ink-400" data-testid="save-state">
             {dirty ? `Unsaved changes on r${baseRevision} (kept in this browser)` : `Saved as r${baseRevision}`}

@@ -16,8 +16,8 @@ const STATUS_CLASS: Record<CanvasEngineStatus, string> = {
   'cannot-solve': 'border-hazard-700 bg-hazard-700/20 text-hazard-100',
 };
 
-export function TopologyBadge({ snapshot }: { snapshot: EngineSnapshot }) {
-  const badge = snapshot.compile?.badge;
+export function TopologyBadge({ snapshot, empty = false }: { snapshot: EngineSnapshot; empty?: boolean }) {
+  const badge = empty ? undefined : snapshot.compile?.badge;
   return (
     <span
       data-testid="topology-badge"
@@ -25,7 +25,7 @@ export function TopologyBadge({ snapshot }: { snapshot: EngineSnapshot }) {
       data-stages={badge?.stages ?? ''}
       className="inline-flex items-center rounded-full border border-lagoon-600 px-2.5 py-0.5 text-xs font-semibold text-lagoon-100"
     >
-      {badge ? badge.label : 'Not compiled yet'}
+      {badge ? badge.label : empty ? 'Empty canvas' : 'Not compiled yet'}
     </span>
   );
 }
@@ -37,8 +37,8 @@ function timingAttributes(s: EngineSnapshot): Record<string, string> {
   return out;
 }
 
-export function EngineStatusPill({ snapshot }: { snapshot: EngineSnapshot }) {
-  const { status, text } = canvasStatus(snapshot);
+export function EngineStatusPill({ snapshot, empty = false }: { snapshot: EngineSnapshot; empty?: boolean }) {
+  const { status, text } = canvasStatus(snapshot, { empty });
   const busy = status === 'solving' || (status === 'out-of-date' && snapshot.status === 'compiling');
   return (
     <span

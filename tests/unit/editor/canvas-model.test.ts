@@ -18,6 +18,10 @@ describe('canvasStatus', () => {
     expect(canvasStatus(snap({ status: 'solving', compiledVersion: 4, currentVersion: 4 })).status).toBe('solving');
     expect(canvasStatus(snap({ status: 'idle' })).status).toBe('idle');
   });
+  it('has nothing to solve on an empty canvas, whatever the engine last said', () => {
+    expect(canvasStatus(snap({ status: 'compiling', currentVersion: 0 }), { empty: true }).status).toBe('idle');
+    expect(canvasStatus(snap({ status: 'cannot-solve', reason: 'no ground' }), { empty: true }).status).toBe('idle');
+  });
   it('gives the reason when it cannot solve', () => {
     const s = canvasStatus(snap({ status: 'cannot-solve', reason: 'no ground' }));
     expect(s.status).toBe('cannot-solve');
