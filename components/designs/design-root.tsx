@@ -8,7 +8,7 @@ import { Badge, Notice, Panel, Skeleton } from '@/components/ui/notice';
 import type { DesignDetailDto } from '@/lib/api/contract';
 import { ApiError, formError } from '@/lib/client/api';
 import { formatDateTime, statusLabel } from '@/lib/client/format';
-import { useDesign, useForkDesign, useRevision, useRevisions, useUpdateDesign } from '@/lib/client/hooks';
+import { useDesign, useForkDesign, useMe, useRevision, useRevisions, useUpdateDesign } from '@/lib/client/hooks';
 import { DesignEditor } from '@/components/editor/design-editor';
 import { DocumentSummaryView } from './document-summary-view';
 
@@ -107,8 +107,10 @@ export function DesignRoot({ designId }: { designId: string }) {
   const latestNumber = design.data?.revision.number ?? null;
   const showing = chosen !== null && chosen !== latestNumber ? chosen : null;
   const other = useRevision(designId, showing);
+  const me = useMe();
+  const [editHere, setEditHere] = useState(false);
 
-  if (design.isPending) return <Skeleton lines={6} />;
+  if (design.isPending || me.isPending) return <Skeleton lines={6} />;
   if (design.isError) {
     const missing = design.error instanceof ApiError && design.error.status === 404;
     return (
@@ -121,6 +123,8 @@ export function DesignRoot({ designId }: { designId: string }) {
   const rev = showing !== null && other.data ? other.data.revision : design.data.revision;
   const selected = showing ?? design.data.revision.number;
   const p = d.permissions;
+  // A teammate's design opens to view; editing it in place is a deliberate choice.
+  const viewingColleague = me.data?.user.id !== d.author.id && p.edit && !d.archived && !editHere;
 
   return (
     <div className="space-y-5">
@@ -180,16 +184,24 @@ export function DesignRoot({ designId }: { designId: string }) {
         ) : null}
         {/* One editor at a time (test ids stay unique); leaving the working copy autosaves it, and
             coming back offers to restore it. */}
+        {showing === null && viewingColleague ? (
+          <p className="flex flex-wrap items-center gap-2 text-sm text-ink-200" data-testid="viewing-colleague">
+            This is {d.author.name || d.author.email}&rsquo;s design.
+            <Button variant="secondary" data-testid="edit-here" onClick={() => setEditHere(true)}>
+              Edit here
+            </Button>
+          </p>
+        ) : null}
         {showing === null ? (
           <DesignEditor
-            key={d.id}
+            key={`${d.id}:${viewingColleague ? 'view' : 'edit'}`}
             designId={d.id}
             title={d.title}
             revisionNumber={design.data.revision.number}
             document={design.data.revision.document}
             mode="working"
-            canEdit={p.edit && !d.archived}
-            readOnlyReason={d.archived ? 'archived' : 'role'}
+            canEdit={p.edit && !d.archived && !viewingColleague}
+            readOnlyReason={d.archived ? 'archived' : viewingColleague ? 'viewing' : 'role'}
             canFork={p.fork}
           />
         ) : null}

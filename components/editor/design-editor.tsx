@@ -49,7 +49,8 @@ export interface DesignEditorProps {
   /** Whether the user may edit this design (server-decided permission, and not archived). */
   canEdit: boolean;
   /** Why editing is off when `canEdit` is false. */
-  readOnlyReason?: 'role' | 'archived';
+  /** Why a working copy is read-only: the role, an archived design, or a colleague's design opened to view (`viewing`). */
+  readOnlyReason?: 'role' | 'archived' | 'viewing';
   /** Whether the user may fork (the read-only banner then points to it). */
   canFork?: boolean;
   /** Whether this editor takes the keyboard shortcuts (one editor on the page at a time). */
@@ -434,6 +435,8 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
             ? `You are looking at r${revisionNumber}, an older revision: it opens read-only. Pick the latest revision to get back to the working copy${canFork ? ', or fork from here' : ''}.`
             : readOnlyReason === 'archived'
               ? `Read-only: this design is archived. Unarchive it to edit${canFork ? ', or fork it' : ''}.`
+              : readOnlyReason === 'viewing'
+                ? `Viewing a colleague's design, read-only.${canFork ? ' Fork it to try a variant of your own, or choose “Edit here” to change it for everyone.' : ''}`
               : `Read-only: your role on this team lets you view, hover and export this design, not change it.${canFork ? ' Fork it to make your own editable copy.' : ''}`}
         </div>
       ) : null}
