@@ -247,7 +247,7 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
   const readOnly = useEditor((s) => s.readOnly);
   const dirty = useEditor((s) => s.dirty);
   const lastRefusal = useEditor((s) => s.lastRefusal);
-  const snapshot = useEngine(document, version);
+  const snapshot = useEngine(document, version, editor);
   const canvasBox = useRef<HTMLDivElement>(null);
   const [dcLabels, setDcLabels] = useState(false);
   const [help, setHelp] = useState(false);

@@ -38,6 +38,13 @@ export interface EngineControllerOptions {
   warmup?: boolean;
   /** Clock (ms); default `performance.now`. */
   now?: () => number;
+  /**
+   * Send the first edit of a burst at once (leading edge) instead of after the coalescing window:
+   * the compile job always, the solve job when the solve worker is idle (a busy one is replaced
+   * only after the window, so a burst does not throw away several workers). Edits inside the
+   * window are coalesced into one job sent when it closes. Default false.
+   */
+  immediate?: boolean;
 }
 
 interface Job {
@@ -68,6 +75,9 @@ export class EngineController {
   private readonly debounceMs: number;
   private readonly warmup: boolean;
   private readonly now: () => number;
+  private readonly immediate: boolean;
+  /** Id of the last job given to a solve worker. */
+  private solveSent = 0;
   /** When the editor first saw each version (ms, `now()` clock). */
   private readonly seenAt = new Map<number, number>();
   private latest: Job | null = null;
@@ -96,6 +106,7 @@ export class EngineController {
     this.debounceMs = options.debounceMs ?? 12;
     this.warmup = options.warmup ?? true;
     this.now = options.now ?? (() => performance.now());
+    this.immediate = options.immediate ?? false;
   }
 
   readonly subscribe = (listener: () => void): (() => void) => {
@@ -137,7 +148,13 @@ export class EngineController {
     // Start the workers now, so that loading the engine overlaps the coalescing window.
     this.compileWorker ??= this.spawn('compile');
     this.solveWorker ??= this.spawn('solve');
-    if (this.timer === null) this.timer = setTimeout(() => this.flush(), this.debounceMs);
+    if (this.timer !== null) return;
+    if (this.immediate) {
+      // The worker starts on this edit while the main thread is still drawing it.
+      this.sendCompile(this.latest);
+      if (!this.solveBusy) this.sendSolve(this.latest);
+    }
+    this.timer = setTimeout(() => this.flush(), this.debounceMs);
   }
 
   /** Stop both workers and pending timers (the editor unmounted). A later `update` starts again. */
@@ -166,7 +183,7 @@ export class EngineController {
     const job = this.latest;
     if (!job || this.disposed) return;
     this.sendCompile(job);
-    this.sendSolve(job);
+    if (job.id > this.solveSent) this.sendSolve(job);
   }
 
   private elapsedSince(version: number): number | undefined {
@@ -194,6 +211,7 @@ export class EngineController {
       if (this.snapshot.warmupPending) this.set({ ...this.snapshot, warmupPending: false });
     }
     this.solveWorker ??= this.spawn('solve');
+    this.solveSent = job.id;
     this.solveBusy = job;
     this.jobs.solve.set(job.id, job);
     this.solveWorker.postMessage({ type: 'solve', version: job.id, document: job.document, warmup: this.warmup });

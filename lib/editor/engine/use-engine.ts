@@ -15,18 +15,27 @@ function browserWorker(role: 'compile' | 'solve'): EngineWorker {
   return new Worker(new URL('./engine.worker.ts', import.meta.url), { type: 'module', name: `kilorung-${role}` }) as unknown as EngineWorker;
 }
 
+/** Where the editor's document lives (the editor store has this shape). */
+export interface EngineSource {
+  subscribe(listener: (state: { document: DesignDocument; version: number }) => void): () => void;
+}
+
 /**
  * Live engine results for the document on the canvas. `version` must change whenever the
  * document does (the edit counter); the time the hook first renders a version is the start of
- * the `editToEstimateMs` / `editToSolveMs` timings.
+ * the `editToEstimateMs` / `editToSolveMs` timings. With `source` (the editor store), each edit is
+ * handed to the workers the moment the store changes.
  */
-export function useEngine(document: DesignDocument, version: number): EngineSnapshot {
-  const [controller] = useState(() => new EngineController(browserWorker));
+export function useEngine(document: DesignDocument, version: number, source?: EngineSource): EngineSnapshot {
+  const [controller] = useState(() => new EngineController(browserWorker, { immediate: true }));
   // Timing only: marks when this version was first seen (idempotent, no rendering state changes).
   controller.noteVersion(version);
   useEffect(() => () => controller.dispose(), [controller]);
   useEffect(() => {
     controller.update(document, version);
   }, [controller, document, version]);
+  // Straight from the store, so an edit's jobs are posted before React draws the edit (the effect
+  // above then finds the version already seen and does nothing).
+  useEffect(() => source?.subscribe((s) => controller.update(s.document, s.version)), [controller, source]);
   return useSyncExternalStore(controller.subscribe, controller.getSnapshot, controller.getSnapshot);
 }
