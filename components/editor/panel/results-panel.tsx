@@ -1,6 +1,6 @@
 'use client';
 
-import type { ReactNode } from 'react';
+import { memo, useDeferredValue, useMemo, type ReactNode } from 'react';
 import type { EngineSnapshot, NodeReading } from '@/lib/editor/types';
 import { formatReading } from '@/lib/editor/format';
 import { CompareTable } from './compare-table';
@@ -24,6 +24,17 @@ function Section({ title, note, children, testId, open = true }: { title: string
   );
 }
 
+// Each section re-renders only when its own inputs change: an engine snapshot that moves the
+// status (compiling → estimate → solve → warm-up) must not redraw the tables and plots whose data
+// it did not touch (measured: the plots' re-renders were most of the main thread's work per edit).
+const CompareTableMemo = memo(CompareTable);
+const NodeTableMemo = memo(NodeTable);
+const StressTableMemo = memo(StressTable);
+const WaveformPlotMemo = memo(WaveformPlot);
+const WarmupPlotMemo = memo(WarmupPlot);
+const SafetySectionMemo = memo(SafetySection);
+const NO_LABELS: Record<string, string> = {};
+
 function Pending({ children }: { children: ReactNode }) {
   return <p className="text-xs text-ink-400">{children}</p>;
 }
@@ -46,16 +57,26 @@ export function ResultsPanel({
   onFocusBlock: (blockId: string) => void;
 }) {
   const status = statusLine(snapshot);
-  const { compile, estimate, solve } = snapshot;
-  const labels = compile?.nodeLabels ?? {};
-  const rows = nodeRows(solve, compile?.nodeLabels ?? null);
-  const outputs = solve?.outputs ?? compile?.outputs ?? [];
+  const { compile, estimate } = snapshot;
+  // The status line and the estimate are drawn at once; the tables and plots of the solve follow
+  // in a deferred render, so a new result is on screen before the heavy sections are redrawn.
+  const deferred = useDeferredValue(snapshot);
+  const solve = deferred.solve;
+  const deferredStatus = deferred === snapshot ? status : statusLine(deferred);
+  const labels = deferred.compile?.nodeLabels ?? NO_LABELS;
+  const rows = useMemo(() => nodeRows(solve, deferred.compile?.nodeLabels ?? null), [solve, deferred.compile?.nodeLabels]);
+  const outputs = solve?.outputs ?? deferred.compile?.outputs ?? [];
   // With nothing selected the plot shows the output(s), so it is never empty after a solve.
-  const plotted: NodeReading[] = solve
-    ? (selectedNodes.length > 0 ? selectedNodes : outputs.map((o) => o.node)).map((n) => solve.nodes[n]).filter((r): r is NodeReading => r !== undefined)
-    : [];
+  const plotted = useMemo<NodeReading[]>(
+    () =>
+      solve
+        ? (selectedNodes.length > 0 ? selectedNodes : solve.outputs.map((o) => o.node)).map((n) => solve.nodes[n]).filter((r): r is NodeReading => r !== undefined)
+        : [],
+    [solve, selectedNodes],
+  );
   const mainOutput = outputs[0]?.node;
-  const waiting = snapshot.status === 'cannot-solve' ? 'No solve: see the status above.' : 'Waiting for the steady-state solve…';
+  const waiting = deferred.status === 'cannot-solve' ? 'No solve: see the status above.' : 'Waiting for the steady-state solve…';
+  const compareSolve = snapshot.solve;
 
   return (
     <section data-testid="results-panel" aria-label="Results" className="flex h-full min-h-0 flex-col bg-ink-900 text-ink-100">
@@ -79,41 +100,41 @@ export function ResultsPanel({
 
       <div className="min-h-0 flex-1 space-y-1 overflow-y-auto px-2 pb-4">
         <Section title="Estimate vs solve" testId="panel-compare" note={estimate ? `${estimate.result.topology}, ${estimate.result.stages} stage${estimate.result.stages === 1 ? '' : 's'} per ladder` : undefined}>
-          {estimate || solve ? (
-            <CompareTable estimate={estimate?.result ?? null} solve={solve} warmupPending={snapshot.warmupPending} solveStale={status.solveStale} estimateStale={status.estimateStale} />
+          {estimate || compareSolve ? (
+            <CompareTableMemo estimate={estimate?.result ?? null} solve={compareSolve} warmupPending={snapshot.warmupPending} solveStale={status.solveStale} estimateStale={status.estimateStale} />
           ) : (
             <Pending>{snapshot.status === 'cannot-solve' ? 'Nothing to compare: the drawing does not compile.' : 'Waiting for the compile…'}</Pending>
           )}
         </Section>
 
         <Section title="Nodes" testId="panel-nodes" note={solve ? 'click to plot · ☐ adds to the plot' : undefined}>
-          {compile || solve ? <NodeTable rows={rows} selected={selectedNodes} onSelect={onSelectNodes} stale={status.solveStale} /> : <Pending>Waiting for the compile…</Pending>}
-          {!solve && compile ? <Pending>{waiting}</Pending> : null}
+          {deferred.compile || solve ? <NodeTableMemo rows={rows} selected={selectedNodes} onSelect={onSelectNodes} stale={deferredStatus.solveStale} /> : <Pending>Waiting for the compile…</Pending>}
+          {!solve && deferred.compile ? <Pending>{waiting}</Pending> : null}
         </Section>
 
         <Section title="One period" testId="panel-waveform" note={solve ? `${formatReading(solve.frequencyHz, 'Hz', 3)} · period ${formatReading(solve.periodS, 's', 3)}` : undefined}>
-          {solve ? <WaveformPlot readings={plotted} periodS={solve.periodS} /> : <Pending>{waiting}</Pending>}
+          {solve ? <WaveformPlotMemo readings={plotted} periodS={solve.periodS} /> : <Pending>{waiting}</Pending>}
         </Section>
 
         <Section title="Warm-up of the output" testId="panel-warmup">
           {solve?.warmup ? (
-            <WarmupPlot warmup={solve.warmup} outputLabel={mainOutput ? (labels[mainOutput] ?? solve.nodes[mainOutput]?.label ?? mainOutput) : 'output'} />
-          ) : solve && snapshot.warmupPending ? (
+            <WarmupPlotMemo warmup={solve.warmup} outputLabel={mainOutput ? (labels[mainOutput] ?? solve.nodes[mainOutput]?.label ?? mainOutput) : 'output'} />
+          ) : solve && deferred.warmupPending ? (
             <Pending>Warm-up from power-on is running…</Pending>
           ) : (
             <Pending>
-              {estimate ? `Estimate: 90 % after ${Number(estimate.result.warmupCycles90.toPrecision(3))} cycles (${formatReading(estimate.result.warmupTime90S, 's', 3)}). ` : ''}
+              {deferred.estimate ? `Estimate: 90 % after ${Number(deferred.estimate.result.warmupCycles90.toPrecision(3))} cycles (${formatReading(deferred.estimate.result.warmupTime90S, 's', 3)}). ` : ''}
               {solve ? 'No warm-up run for this solve.' : waiting}
             </Pending>
           )}
         </Section>
 
         <Section title="Part stress" testId="panel-stress" note={solve ? 'click a part to show it' : undefined}>
-          {solve ? <StressTable parts={solve.parts} onFocusBlock={onFocusBlock} stale={status.solveStale} /> : <Pending>{waiting}</Pending>}
+          {solve ? <StressTableMemo parts={solve.parts} onFocusBlock={onFocusBlock} stale={deferredStatus.solveStale} /> : <Pending>{waiting}</Pending>}
         </Section>
 
         <Section title="Safety" testId="panel-safety">
-          <SafetySection safety={solve?.safety ?? null} estimate={estimate?.result ?? null} nodeLabels={labels} />
+          <SafetySectionMemo safety={solve?.safety ?? null} estimate={deferred.estimate?.result ?? null} nodeLabels={labels} />
         </Section>
 
         {solve ? (
