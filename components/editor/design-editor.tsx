@@ -35,6 +35,9 @@ import { EditorStoreProvider, useEditor, useEditorApi } from './store-context';
 // every pointer move) must not redraw their tables and plots.
 const ResultsPanelMemo = memo(ResultsPanel);
 const DiagnosticsListMemo = memo(DiagnosticsList);
+// Neither depends on the engine snapshot: an engine result must not redraw the tray or the forms.
+const BlockTrayMemo = memo(BlockTray);
+const HelpSheetMemo = memo(HelpSheet);
 
 /** Autosave waits this long after the last edit before writing (ms). */
 const AUTOSAVE_DELAY_MS = 800;
@@ -210,7 +213,7 @@ function SaveForm({ onSave, onCancel, pending }: { onSave: (message: string) => 
   );
 }
 
-function SelectionInspector() {
+const SelectionInspector = memo(function SelectionInspector() {
   const editor = useEditorApi();
   const document = useEditor((s) => s.document);
   const selection = useEditor((s) => s.selection);
@@ -236,7 +239,7 @@ function SelectionInspector() {
     ) : null;
   }
   return <SettingsInspector settings={document.settings} readOnly={readOnly} onChange={(s) => editor.getState().updateSettings(s)} />;
-}
+});
 
 function EditorBody({ designId, title, revisionNumber, document: initialDocument, mode, canEdit, readOnlyReason = 'role', canFork = false, active = true }: DesignEditorProps) {
   const editor = useEditorApi();
@@ -378,6 +381,8 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
     [editor, flow],
   );
 
+  const closeHelp = useCallback(() => setHelp(false), []);
+
   const actions: ToolbarActions = {
     undo: () => editor.getState().undo(),
     redo: () => editor.getState().redo(),
@@ -480,7 +485,7 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
       <div className={`grid gap-3 ${readOnly ? 'lg:grid-cols-[1fr_26rem]' : 'lg:grid-cols-[11rem_1fr_26rem]'}`}>
         {!readOnly ? (
           <aside className="max-h-[78vh] overflow-y-auto rounded-lg border border-ink-800 bg-ink-800/40 p-2">
-            <BlockTray onAdd={addAtCentre} />
+            <BlockTrayMemo onAdd={addAtCentre} />
           </aside>
         ) : null}
         <div className="min-w-0 space-y-2">
@@ -508,7 +513,7 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
         </aside>
       </div>
       <HoverLayer snapshot={snapshot} document={document} />
-      <HelpSheet open={help} onClose={() => setHelp(false)} />
+      <HelpSheetMemo open={help} onClose={closeHelp} />
     </div>
   );
 }
