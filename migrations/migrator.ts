@@ -8,12 +8,14 @@ import { Umzug, SequelizeStorage } from 'umzug';
 import * as createUsersAndAuth from './20261202000100-create-users-and-auth';
 import * as createTeams from './20261202000200-create-teams';
 import * as createDesigns from './20261202000300-create-designs';
+import * as reviewsAndOffers from './20261202000400-reviews-and-offers';
 
 type Step = (params: { context: QueryInterface }) => Promise<void>;
 const MIGRATIONS: [string, { up: Step; down: Step }][] = [
   ['20261202000100-create-users-and-auth', createUsersAndAuth],
   ['20261202000200-create-teams', createTeams],
   ['20261202000300-create-designs', createDesigns],
+  ['20261202000400-reviews-and-offers', reviewsAndOffers],
 ];
 
 /** A migrator over `sequelize`; `quiet` silences umzug's per-step log lines. */

@@ -11,8 +11,14 @@ import { Membership } from './membership';
 import { Invitation } from './invitation';
 import { Design } from './design';
 import { DesignRevision } from './design-revision';
+// reviews and offers
+import { ReviewRequest, ReviewRequestReviewer } from './review-request';
+import { Approval } from './approval';
+import { ForkOffer } from './fork-offer';
 
 export { User, Account, Session, VerificationToken, SignInThrottle, Team, Membership, Invitation, Design, DesignRevision };
+// reviews and offers
+export { ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer };
 
 /** The model classes, initialised. */
 export interface Models {
@@ -26,13 +32,22 @@ export interface Models {
   Invitation: typeof Invitation;
   Design: typeof Design;
   DesignRevision: typeof DesignRevision;
+  // reviews and offers
+  ReviewRequest: typeof ReviewRequest;
+  ReviewRequestReviewer: typeof ReviewRequestReviewer;
+  Approval: typeof Approval;
+  ForkOffer: typeof ForkOffer;
 }
 
 let boundTo: Sequelize | null = null;
 
 /** Bind every model to `sequelize` and declare the associations (idempotent per instance). */
 export function initModels(sequelize: Sequelize): Models {
-  const models: Models = { User, Account, Session, VerificationToken, SignInThrottle, Team, Membership, Invitation, Design, DesignRevision };
+  const models: Models = {
+    ...{ User, Account, Session, VerificationToken, SignInThrottle, Team, Membership, Invitation, Design, DesignRevision },
+    // reviews and offers
+    ...{ ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer },
+  };
   if (boundTo === sequelize) return models;
   boundTo = sequelize;
   for (const m of Object.values(models)) m.initModel(sequelize);
@@ -47,5 +62,14 @@ export function initModels(sequelize: Sequelize): Models {
   Design.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
   Design.belongsTo(Design, { foreignKey: 'forkedFromDesignId', as: 'forkedFrom' });
   DesignRevision.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+  // reviews and offers
+  ReviewRequest.belongsTo(User, { foreignKey: 'requestedById', as: 'requestedBy' });
+  ReviewRequest.belongsTo(User, { foreignKey: 'decidedById', as: 'decidedBy' });
+  ReviewRequest.belongsToMany(User, { through: ReviewRequestReviewer, foreignKey: 'reviewRequestId', otherKey: 'userId', as: 'reviewers' });
+  Approval.belongsTo(User, { foreignKey: 'approvedById', as: 'approvedBy' });
+  ForkOffer.belongsTo(Design, { foreignKey: 'forkDesignId', as: 'fork' });
+  ForkOffer.belongsTo(Design, { foreignKey: 'parentDesignId', as: 'parent' });
+  ForkOffer.belongsTo(User, { foreignKey: 'offeredById', as: 'offeredBy' });
+  ForkOffer.belongsTo(User, { foreignKey: 'decidedById', as: 'decidedBy' });
   return models;
 }

@@ -30,9 +30,9 @@ import type {
 import { designDocumentSchema, type DesignDocument } from '../circuit/document/schema';
 import { db } from '../db';
 import { AppError, conflict, forbidden, notFound } from '../errors';
-import type { Design, DesignRevision } from '../../models';
+import type { Approval, Design, DesignRevision } from '../../models';
 import { canWrite, loadCaller, requireMember, requireRole, WRITER_ROLES, type Caller } from './access';
-import { revisionSummaryDto, userDto } from './dto';
+import { approvalDto, reviewDto, revisionSummaryDto, userDto } from './dto';
 import { summariseTopology } from './topology';
 
 type CreateInput = z.output<typeof createDesignSchema>;
@@ -41,7 +41,8 @@ type SaveInput = z.output<typeof saveRevisionSchema>;
 type ForkInput = z.output<typeof forkSchema>;
 type ListQuery = z.output<typeof designListQuerySchema>;
 
-function readable(caller: Caller, d: Pick<Design, 'teamId' | 'visibility' | 'authorId'>): boolean {
+/** May the caller read `d`? Team members for 'team' designs; the author alone for 'private'. */
+export function readable(caller: Caller, d: Pick<Design, 'teamId' | 'visibility' | 'authorId'>): boolean {
   return caller.roles.has(d.teamId) && (d.visibility === 'team' || d.authorId === caller.userId);
 }
 
@@ -94,10 +95,35 @@ function summaryDto(caller: Caller, d: Design): DesignSummaryDto {
   };
 }
 
-async function detailDto(caller: Caller, d: Design): Promise<DesignDetailDto> {
+/** What a review request needs included for reviewDto. */
+export const includeForReview = () => {
+  const { User } = db().models;
+  return [
+    { model: User, as: 'requestedBy' },
+    { model: User, as: 'decidedBy' },
+    { model: User, as: 'reviewers', through: { attributes: [] } },
+  ];
+};
+
+/** The latest approval of a design, if any. */
+export async function latestApproval(designId: string, transaction?: Transaction): Promise<Approval | null> {
+  const { Approval: A, User } = db().models;
+  return A.findOne({ where: { designId }, include: [{ model: User, as: 'approvedBy' }], order: [['createdAt', 'DESC']], transaction });
+}
+
+/** Roles that decide reviews (never on a design they authored). */
+export const DECIDER_ROLES: readonly Role[] = ['owner', 'reviewer'];
+
+/** The detail DTO of a design the caller may read (permissions decided from their role now). */
+export async function detailDto(caller: Caller, d: Design): Promise<DesignDetailDto> {
   const role = caller.roles.get(d.teamId) as Role;
-  const { Design: D, User } = db().models;
-  const forks = await D.findAll({ where: { forkedFromDesignId: d.id }, include: [{ model: User, as: 'author' }], order: [['createdAt', 'ASC']] });
+  const { Design: D, User, ReviewRequest } = db().models;
+  const [forks, approval, openReview] = await Promise.all([
+    D.findAll({ where: { forkedFromDesignId: d.id }, include: [{ model: User, as: 'author' }], order: [['createdAt', 'ASC']] }),
+    latestApproval(d.id),
+    ReviewRequest.findOne({ where: { designId: d.id, state: 'open' }, include: includeForReview() }),
+  ]);
+  const isAuthor = d.authorId === caller.userId;
   return {
     ...summaryDto(caller, d),
     permissions: {
@@ -105,15 +131,21 @@ async function detailDto(caller: Caller, d: Design): Promise<DesignDetailDto> {
       fork: canWrite(role),
       share: canShare(role, caller, d),
       archive: canManage(role, caller, d),
+      requestReview: canWrite(role) && d.archivedAt === null,
+      decideReview: DECIDER_ROLES.includes(role) && !isAuthor && d.archivedAt === null,
+      comment: role !== 'viewer',
+      offerBack: isAuthor && d.archivedAt === null && !!d.forkedFrom && readable(caller, d.forkedFrom),
     },
     forks: forks
       .filter((f) => readable(caller, f))
       .map((f) => ({ designId: f.id, title: f.title, author: userDto(f.author), revision: f.forkedFromRevision ?? 1 })),
+    approval: approval ? approvalDto(approval) : null,
+    openReview: openReview ? reviewDto(openReview) : null,
   };
 }
 
 /** Load a design the caller may read, with author and parent; 404 otherwise. */
-async function loadReadable(caller: Caller, designId: string, transaction?: Transaction): Promise<Design> {
+export async function loadReadable(caller: Caller, designId: string, transaction?: Transaction): Promise<Design> {
   const d = await db().models.Design.findByPk(designId, { include: includeForList(), transaction });
   if (!d || !readable(caller, d)) throw notFound('design');
   return d;

@@ -1,6 +1,6 @@
 /** Plain DTOs (lib/api/contract.ts) from model instances; nothing else leaves lib/data. */
-import type { InvitationDto, MemberDto, RevisionSummaryDto, UserDto } from '../api/contract';
-import type { DesignRevision, Invitation, Membership, User } from '../../models';
+import type { ApprovalDto, InvitationDto, MemberDto, ReviewDto, RevisionSummaryDto, UserDto } from '../api/contract';
+import type { Approval, DesignRevision, Invitation, Membership, ReviewRequest, User } from '../../models';
 
 /** A user as others see them. */
 export function userDto(u: User | undefined | null): UserDto {
@@ -30,4 +30,28 @@ export function invitationDto(i: Invitation): InvitationDto {
 /** A revision's metadata with its author included. */
 export function revisionSummaryDto(r: DesignRevision): RevisionSummaryDto {
   return { number: r.number, message: r.message, author: userDto(r.author), createdAt: r.createdAt.toISOString() };
+}
+
+// reviews and offers
+
+/** A review request with requestedBy, decidedBy and reviewers included. */
+export function reviewDto(r: ReviewRequest): ReviewDto {
+  return {
+    id: r.id,
+    designId: r.designId,
+    revision: r.revision,
+    requestedBy: userDto(r.requestedBy),
+    reviewers: (r.reviewers ?? []).map(userDto).sort((a, b) => a.name.localeCompare(b.name)),
+    note: r.note,
+    state: r.state,
+    createdAt: r.createdAt.toISOString(),
+    decidedBy: r.decidedById ? userDto(r.decidedBy) : null,
+    decidedAt: r.decidedAt ? r.decidedAt.toISOString() : null,
+    decisionNote: r.decisionNote ?? null,
+  };
+}
+
+/** An approval with approvedBy included. */
+export function approvalDto(a: Approval): ApprovalDto {
+  return { reviewId: a.reviewRequestId, revision: a.revision, approvedBy: userDto(a.approvedBy), approvedAt: a.createdAt.toISOString(), note: a.note };
 }
