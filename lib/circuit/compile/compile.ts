@@ -1,6 +1,6 @@
 /**
- * Canvas document → netlist compiler. Wired ports are merged into nets with union-find; the
- * ground block's net is node `0`; ladder nets are named from their stage block and port
+ * Canvas document → netlist compiler. Wired ports are grouped into nets by `documentNets`
+ * (union-find, shared with the canvas's wire check); the ground net is node `0`; ladder nets are named from their stage block and port
  * (`x_<id>`, `y_<id>`, `x2_<id>`), source nets `<id>_<port>`, all others `n_<blockId>_<port>`,
  * so names stay stable while the drawing is edited. Everything the canvas adds beyond the SPICE
  * subset becomes plain R and C elements: source resistance and capacitor ESR in series through an
@@ -13,6 +13,7 @@
 import { GROUND, type DiodeModel, type Netlist, type NetlistElement, type SineSpec } from '../netlist/types';
 import { defaultDiodeModel } from '../netlist/parse';
 import { portsOf, type DesignBlock, type DesignDocument, type DiodeModelParams } from '../document/schema';
+import { documentNets } from '../document/nets';
 import { attachOrigins, hasErrors, type Diagnostic } from './diagnostics';
 import { recognizeTopology, type TopologyReport } from './topology';
 
@@ -31,36 +32,17 @@ export function compileDocument(doc: DesignDocument): CompileResult {
   const blocks = doc.blocks;
   const byId = new Map(blocks.map((b) => [b.id, b] as const));
 
-  // Union-find over ports.
-  const parent = new Map<string, string>();
-  const allPorts: Port[] = [];
-  for (const b of blocks) {
-    for (const p of portsOf(b)) {
-      parent.set(key(b.id, p), key(b.id, p));
-      allPorts.push({ blockId: b.id, port: p });
-    }
-  }
-  const find = (k: string): string => {
-    let r = k;
-    while (parent.get(r) !== r) r = parent.get(r) as string;
-    let c = k;
-    while (parent.get(c) !== r) {
-      const next = parent.get(c) as string;
-      parent.set(c, r);
-      c = next;
-    }
-    return r;
-  };
+  // Nets: the document's shared port grouping (grounds on one net).
+  const nets = documentNets(doc);
+  const allPorts: Port[] = blocks.flatMap((b) => portsOf(b).map((port) => ({ blockId: b.id, port })));
   const wired = new Set<string>();
   for (const w of doc.wires) {
-    const a = key(w.source, w.sourcePort);
-    const b = key(w.target, w.targetPort);
     let bad = false;
-    for (const [blockId, port, k] of [
-      [w.source, w.sourcePort, a],
-      [w.target, w.targetPort, b],
+    for (const [blockId, port] of [
+      [w.source, w.sourcePort],
+      [w.target, w.targetPort],
     ] as const) {
-      if (!parent.has(k)) {
+      if (nets.netOf(blockId, port) === undefined) {
         bad = true;
         diagnostics.push({
           code: 'unknown-port',
@@ -71,19 +53,10 @@ export function compileDocument(doc: DesignDocument): CompileResult {
       }
     }
     if (bad) continue;
-    wired.add(a);
-    wired.add(b);
-    parent.set(find(a), find(b));
+    wired.add(key(w.source, w.sourcePort));
+    wired.add(key(w.target, w.targetPort));
   }
-
-  // Name nets.
-  const members = new Map<string, Port[]>();
-  for (const p of allPorts) {
-    const r = find(key(p.blockId, p.port));
-    let list = members.get(r);
-    if (!list) members.set(r, (list = []));
-    list.push(p);
-  }
+  const members = new Map<string, Port[]>(nets.nets().map((n) => [n, nets.members(n)]));
   const netName = new Map<string, string>();
   const taken = new Set<string>([GROUND]);
   for (const [root, ports] of members) {
@@ -105,7 +78,7 @@ export function compileDocument(doc: DesignDocument): CompileResult {
     }
     netName.set(root, name);
   }
-  const net = (blockId: string, port: string) => netName.get(find(key(blockId, port))) as string;
+  const net = (blockId: string, port: string) => netName.get(nets.netOf(blockId, port) as string) as string;
   const nodeOrigins: Record<string, Port[]> = {};
   for (const [root, ports] of members) {
     const name = netName.get(root) as string;

@@ -6,7 +6,10 @@
  * is already on, puts both ends of a part on one node (a short), closes a loop of voltage
  * sources, ties two sources' outputs together, or joins two ports of one block.
  */
+import { documentNets } from './nets';
 import { portsOf, type DesignBlock, type DesignDocument } from './schema';
+
+export { documentNets, type DocumentNets } from './nets';
 
 /** A wire the canvas wants to add (ports by block id and port name; direction does not matter). */
 export type WireCandidate = { source: string; sourcePort: string; target: string; targetPort: string };
@@ -97,67 +100,6 @@ export function blockParts(block: DesignBlock, name: string): BlockPart[] {
 }
 
 /** The document's nets: which ports share a node once the wires are drawn. */
-export interface DocumentNets {
-  /** Net key of a port (stable within one grouping), or undefined for an unknown block or port. */
-  netOf(blockId: string, port: string): string | undefined;
-  /** Whether the net is the ground node (holds a ground block's port). */
-  isGround(net: string): boolean;
-  /** Every port on the net. */
-  members(net: string): Array<{ blockId: string; port: string }>;
-}
-
-const GROUND_NET = 'ground';
-const portKey = (blockId: string, port: string) => `${blockId}\u0000${port}`;
-
-/**
- * Group the document's ports into nets: union-find over the wires as in `compileDocument`, and
- * every ground block's port on one ground net (the compiler names them all node 0). Wires that
- * name unknown blocks or ports are skipped, as the compiler skips them.
- */
-export function documentNets(doc: DesignDocument): DocumentNets {
-  const parent = new Map<string, string>();
-  parent.set(GROUND_NET, GROUND_NET);
-  for (const b of doc.blocks) for (const p of portsOf(b)) parent.set(portKey(b.id, p), b.kind === 'ground' ? GROUND_NET : portKey(b.id, p));
-  const find = (k: string): string => {
-    let r = k;
-    while (parent.get(r) !== r) r = parent.get(r) as string;
-    let c = k;
-    while (parent.get(c) !== r) {
-      const next = parent.get(c) as string;
-      parent.set(c, r);
-      c = next;
-    }
-    return r;
-  };
-  const union = (a: string, b: string) => {
-    const ra = find(a);
-    const rb = find(b);
-    if (ra === rb) return;
-    // The ground net keeps its key so isGround stays a key comparison.
-    if (ra === GROUND_NET) parent.set(rb, ra);
-    else parent.set(ra, rb);
-  };
-  for (const w of doc.wires) {
-    const a = portKey(w.source, w.sourcePort);
-    const b = portKey(w.target, w.targetPort);
-    if (parent.has(a) && parent.has(b)) union(a, b);
-  }
-  const byNet = new Map<string, Array<{ blockId: string; port: string }>>();
-  for (const b of doc.blocks) {
-    for (const p of portsOf(b)) {
-      const r = find(portKey(b.id, p));
-      let list = byNet.get(r);
-      if (!list) byNet.set(r, (list = []));
-      list.push({ blockId: b.id, port: p });
-    }
-  }
-  return {
-    netOf: (blockId, port) => (parent.has(portKey(blockId, port)) ? find(portKey(blockId, port)) : undefined),
-    isGround: (net) => net === GROUND_NET,
-    members: (net) => byNet.get(net) ?? [],
-  };
-}
-
 /** Ports of a source that drive the circuit (the ones two sources must not share). */
 function isSourceOutput(block: DesignBlock, port: string): boolean {
   return (block.kind === 'acSource' && (port === 'hot' || port === 'hotB')) || (block.kind === 'dcSource' && port === 'pos');
