@@ -35,6 +35,20 @@ function html(paragraphs: string[], url: string, button: string): string {
   return `<!doctype html><html><body style="font-family:sans-serif;color:#0f172a">${body}<p><a href="${escapeHtml(url)}">${escapeHtml(button)}</a></p><p style="color:#64748b;font-size:12px">${escapeHtml(url)}</p></body></html>`;
 }
 
+/**
+ * A notification (review asked for or decided, a mention, an offer back): the lines, then the
+ * link to the exact place on its own line, then a footer saying where to turn the kind off.
+ */
+export function notificationMessage(opts: { to: string; subject: string; lines: string[]; url: string; button: string; settingsUrl: string }): MailMessage {
+  const footer = `You get this mail because of your Kilorung notification settings: ${opts.settingsUrl}`;
+  return {
+    to: opts.to,
+    subject: opts.subject,
+    text: `${opts.lines.join('\n')}\n\n${opts.url}\n\n${footer}\n`,
+    html: html([...opts.lines], opts.url, opts.button).replace('</body>', `<p style="color:#64748b;font-size:12px">${escapeHtml(footer)}</p></body>`),
+  };
+}
+
 /** The sign-in link mail (next-auth e-mail provider). `url` is the one-time callback link. */
 export function signInLinkMessage(to: string, url: string): MailMessage {
   const lines = ['Use this link to sign in to Kilorung. It works once and expires in 24 hours.', "If you did not ask for it, ignore this mail."];

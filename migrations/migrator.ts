@@ -9,6 +9,7 @@ import * as createUsersAndAuth from './20261202000100-create-users-and-auth';
 import * as createTeams from './20261202000200-create-teams';
 import * as createDesigns from './20261202000300-create-designs';
 import * as reviewsAndOffers from './20261202000400-reviews-and-offers';
+import * as commentsAndActivity from './20261202000500-comments-and-activity';
 
 type Step = (params: { context: QueryInterface }) => Promise<void>;
 const MIGRATIONS: [string, { up: Step; down: Step }][] = [
@@ -16,6 +17,7 @@ const MIGRATIONS: [string, { up: Step; down: Step }][] = [
   ['20261202000200-create-teams', createTeams],
   ['20261202000300-create-designs', createDesigns],
   ['20261202000400-reviews-and-offers', reviewsAndOffers],
+  ['20261202000500-comments-and-activity', commentsAndActivity],
 ];
 
 /** A migrator over `sequelize`; `quiet` silences umzug's per-step log lines. */

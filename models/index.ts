@@ -15,10 +15,15 @@ import { DesignRevision } from './design-revision';
 import { ReviewRequest, ReviewRequestReviewer } from './review-request';
 import { Approval } from './approval';
 import { ForkOffer } from './fork-offer';
+// comments and activity
+import { Comment } from './comment';
+import { ActivityEvent, ActivityRecipient, NotificationSetting } from './activity';
 
 export { User, Account, Session, VerificationToken, SignInThrottle, Team, Membership, Invitation, Design, DesignRevision };
 // reviews and offers
 export { ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer };
+// comments and activity
+export { Comment, ActivityEvent, ActivityRecipient, NotificationSetting };
 
 /** The model classes, initialised. */
 export interface Models {
@@ -37,6 +42,11 @@ export interface Models {
   ReviewRequestReviewer: typeof ReviewRequestReviewer;
   Approval: typeof Approval;
   ForkOffer: typeof ForkOffer;
+  // comments and activity
+  Comment: typeof Comment;
+  ActivityEvent: typeof ActivityEvent;
+  ActivityRecipient: typeof ActivityRecipient;
+  NotificationSetting: typeof NotificationSetting;
 }
 
 let boundTo: Sequelize | null = null;
@@ -47,6 +57,8 @@ export function initModels(sequelize: Sequelize): Models {
     ...{ User, Account, Session, VerificationToken, SignInThrottle, Team, Membership, Invitation, Design, DesignRevision },
     // reviews and offers
     ...{ ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer },
+    // comments and activity
+    ...{ Comment, ActivityEvent, ActivityRecipient, NotificationSetting },
   };
   if (boundTo === sequelize) return models;
   boundTo = sequelize;
@@ -71,5 +83,11 @@ export function initModels(sequelize: Sequelize): Models {
   ForkOffer.belongsTo(Design, { foreignKey: 'parentDesignId', as: 'parent' });
   ForkOffer.belongsTo(User, { foreignKey: 'offeredById', as: 'offeredBy' });
   ForkOffer.belongsTo(User, { foreignKey: 'decidedById', as: 'decidedBy' });
+  // comments and activity
+  Comment.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+  Comment.belongsTo(User, { foreignKey: 'resolvedById', as: 'resolvedBy' });
+  ActivityEvent.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
+  ActivityEvent.belongsTo(Design, { foreignKey: 'designId', as: 'design' });
+  ActivityEvent.hasMany(ActivityRecipient, { foreignKey: 'eventId', as: 'recipients' });
   return models;
 }

@@ -10,7 +10,9 @@
  * `UPDATE designs SET latest_revision = latest_revision + 1 WHERE id = ? AND latest_revision = base`
  * claims the next number; PostgreSQL's row lock makes a concurrent save on the same base wait
  * and then match no row, so exactly one wins and the other answers 409 with the current number
- * and writes nothing. Revisions are only ever inserted (a trigger refuses UPDATE).
+ * and writes nothing. Revisions are only ever inserted (a trigger refuses UPDATE). The same
+ * claim (`appendRevision`) turns an approved design into 'changed_since_approval'; accepted
+ * offers back (lib/data/offers.ts) go through it too.
  */
 import 'server-only';
 import { Op, QueryTypes, type Transaction, type WhereOptions } from 'sequelize';
@@ -274,7 +276,8 @@ export async function listRevisions(userId: string, designId: string): Promise<R
   return rows.map(revisionSummaryDto);
 }
 
-async function getRevisionOf(d: Design, number: number): Promise<RevisionDto> {
+/** Revision `number` of `d` with its document; 404 when it does not exist. */
+export async function getRevisionOf(d: Pick<Design, 'id'>, number: number): Promise<RevisionDto> {
   const { DesignRevision: R, User } = db().models;
   const r = await R.findOne({ where: { designId: d.id, number }, include: [{ model: User, as: 'author' }] });
   if (!r) throw notFound('revision');
@@ -289,35 +292,51 @@ export async function getRevision(userId: string, designId: string, number: stri
   return getRevisionOf(d, Number(number));
 }
 
+/**
+ * Append revision `base + 1` to a design inside `transaction`: claim the number with the
+ * conditional UPDATE (see the file comment), copy topology and stages, mark an approved design
+ * 'changed_since_approval', and insert the revision. A stale `base` (or an archived design)
+ * answers 409 with the current number and writes nothing. Saves and accepted offers both go here.
+ */
+export async function appendRevision(
+  designId: string,
+  base: number,
+  document: DesignDocument,
+  authorId: string,
+  message: string,
+  transaction: Transaction,
+): Promise<DesignRevision> {
+  const { topology, stages } = summariseTopology(document);
+  const { sequelize } = db();
+  const claimed = await sequelize.query<{ latest_revision: number }>(
+    `UPDATE designs SET latest_revision = latest_revision + 1, topology = :topology, stages = :stages, updated_at = now(),
+       status = CASE WHEN status = 'approved' THEN 'changed_since_approval'::"enum_designs_status" ELSE status END
+     WHERE id = :id AND latest_revision = :base AND archived_at IS NULL RETURNING latest_revision`,
+    { replacements: { id: designId, base, topology, stages }, type: QueryTypes.SELECT, transaction },
+  );
+  if (claimed.length === 0) {
+    const current = await sequelize.query<{ latest_revision: number; archived_at: Date | null }>('SELECT latest_revision, archived_at FROM designs WHERE id = :id', {
+      replacements: { id: designId },
+      type: QueryTypes.SELECT,
+      transaction,
+    });
+    if (current[0]?.archived_at) throw conflict('this design is archived; restore it before saving');
+    const latest = current[0]?.latest_revision ?? base;
+    throw new AppError('conflict', `revision ${base} is not the latest (${latest} is); reload, merge your changes and save again`, {
+      latestRevision: latest,
+    });
+  }
+  return insertRevision(designId, claimed[0].latest_revision, document, authorId, message, transaction);
+}
+
 /** Save a new revision on top of `baseRevision` (owners and designers); stale base → 409. */
 export async function saveRevision(userId: string, designId: string, input: SaveInput): Promise<RevisionSummaryDto> {
   const caller = await loadCaller(userId);
   const d = await loadReadable(caller, designId);
   requireRole(caller, d.teamId, WRITER_ROLES, 'design');
   if (d.archivedAt) throw conflict('this design is archived; restore it before saving');
-  const { topology, stages } = summariseTopology(input.document);
-  const { sequelize } = db();
-  return sequelize.transaction(async (transaction) => {
-    const claimed = await sequelize.query<{ latest_revision: number }>(
-      `UPDATE designs SET latest_revision = latest_revision + 1, topology = :topology, stages = :stages, updated_at = now()
-       WHERE id = :id AND latest_revision = :base AND archived_at IS NULL RETURNING latest_revision`,
-      { replacements: { id: designId, base: input.baseRevision, topology, stages }, type: QueryTypes.SELECT, transaction },
-    );
-    if (claimed.length === 0) {
-      const current = await sequelize.query<{ latest_revision: number }>('SELECT latest_revision FROM designs WHERE id = :id', {
-        replacements: { id: designId },
-        type: QueryTypes.SELECT,
-        transaction,
-      });
-      const latest = current[0]?.latest_revision ?? d.latestRevision;
-      throw new AppError('conflict', `revision ${input.baseRevision} is not the latest (${latest} is); reload, merge your changes and save again`, {
-        latestRevision: latest,
-      });
-    }
-    const number = claimed[0].latest_revision;
-    const r = await insertRevision(designId, number, input.document, userId, input.message ?? '', transaction);
-    return revisionSummaryDto(r);
-  });
+  const r = await db().sequelize.transaction((transaction) => appendRevision(designId, input.baseRevision, input.document, userId, input.message ?? '', transaction));
+  return revisionSummaryDto(r);
 }
 
 /**

@@ -3,7 +3,7 @@ import type { ApprovalDto, InvitationDto, MemberDto, ReviewDto, RevisionSummaryD
 import type { Approval, DesignRevision, Invitation, Membership, ReviewRequest, User } from '../../models';
 
 /** A user as others see them. */
-export function userDto(u: User | undefined | null): UserDto {
+export function userDto(u: Pick<User, 'id' | 'name' | 'email'> | undefined | null): UserDto {
   if (!u) return { id: '', name: 'unknown', email: '' };
   return { id: u.id, name: u.name ?? u.email.split('@')[0], email: u.email };
 }
