@@ -11,7 +11,9 @@ import { hashPassword } from '../lib/auth/password';
 import { halfWaveStarter, symmetricStarter, type StarterOptions } from '../lib/circuit/document/starters';
 import { designDocumentSchema, type DesignDocument, type DiodeSpec } from '../lib/circuit/document/schema';
 import { summariseTopology } from '../lib/data/topology';
-import type { Role } from '../lib/api/contract';
+import { compileDocument } from '../lib/circuit/compile/compile';
+import type { CommentAnchor, Role } from '../lib/api/contract';
+import type { Transaction } from 'sequelize';
 
 /** The demo password of every seeded person (printed by `npm run app`, written in the README). */
 export const DEMO_PASSWORD = 'kilorung-demo-1';
@@ -117,10 +119,99 @@ const DESIGNS: DesignSpec[] = [
 ];
 
 const DAY_MS = 24 * 60 * 60 * 1000;
+const HOUR_MS = 60 * 60 * 1000;
+
+/** The output node name the compiler gives a document (for comments pinned to it). */
+function outputNode(doc: DesignDocument): string {
+  const r = compileDocument(doc);
+  if (!r.ok || r.topology.outputs.length === 0) throw new Error(`demo document does not compile: ${r.ok ? 'no output' : r.reason}`);
+  return r.topology.outputs[0].node;
+}
+
+/**
+ * The review story of the demo: the X-ray supply went to Rue at r2, came back with changes
+ * (fit a bleeder), was approved at r3; the precipitator ladder waits for Rue's review of r3; a
+ * few comments pinned to nodes and parts, one resolved; the matching activity events. Every row
+ * has a fixed id and is only created when missing.
+ */
+async function seedCollaboration(transaction: Transaction, revisionTimes: Map<string, number[]>): Promise<number> {
+  const { models } = db();
+  const xray = DESIGNS[0];
+  const precip = DESIGNS[2];
+  const teamId = TEAMS[0].id;
+  const at = (designId: string, revision: number, plusHours: number) => new Date((revisionTimes.get(designId)?.[revision - 1] ?? Date.now() - DAY_MS) + plusHours * HOUR_MS);
+  const path = (designId: string, revision: number, key: 'review' | 'comment', itemId: string) => `/designs/${designId}?revision=${revision}&${key}=${itemId}`;
+  let made = 0;
+  const reviews = [
+    { id: id(5, 1), design: xray, revision: 2, by: 'ada', reviewer: 'rue', note: 'Ripple at 0.25 mA and the stage capacitor ratings, please.', state: 'changes_requested' as const, decision: 'Ripple is fine now. There is no bleeder: fit one across the output before this goes near the bench.' },
+    { id: id(5, 2), design: xray, revision: 3, by: 'ada', reviewer: 'rue', note: 'Bleeder fitted (1 GΩ).', state: 'approved' as const, decision: 'Approved for the bench build. Discharge stick and interlock as per the lab procedure.' },
+    { id: id(5, 3), design: precip, revision: 3, by: 'ada', reviewer: 'rue', note: 'Six stages at 2.5 kV peak; check the top diode margin.', state: 'open' as const, decision: null },
+  ];
+  for (const r of reviews) {
+    if (await models.ReviewRequest.findByPk(r.id, { transaction })) continue;
+    const created = at(r.design.id, r.revision, 2);
+    const decided = r.decision ? at(r.design.id, r.revision, 20) : null;
+    await models.ReviewRequest.create(
+      { id: r.id, designId: r.design.id, revision: r.revision, requestedById: userId(r.by), note: r.note, state: r.state, decidedById: r.decision ? userId(r.reviewer) : null, decidedAt: decided, decisionNote: r.decision, createdAt: created },
+      { transaction },
+    );
+    await models.ReviewRequestReviewer.create({ reviewRequestId: r.id, userId: userId(r.reviewer) }, { transaction });
+    if (r.state === 'approved') {
+      await models.Approval.create({ id: id(6, 1), designId: r.design.id, reviewRequestId: r.id, revision: r.revision, approvedById: userId(r.reviewer), note: r.decision ?? '', createdAt: decided! }, { transaction });
+    }
+    const link = path(r.design.id, r.revision, 'review', r.id);
+    const ev = await models.ActivityEvent.create({ kind: 'review_requested', teamId, designId: r.design.id, actorId: userId(r.by), summary: `Ada asked for a review of "${r.design.title}" r${r.revision}`, path: link, createdAt: created }, { transaction });
+    await models.ActivityRecipient.create({ eventId: ev.id, userId: userId(r.reviewer) }, { transaction });
+    if (r.decision) {
+      const what = r.state === 'approved' ? 'approved' : 'asked for changes to';
+      const dv = await models.ActivityEvent.create({ kind: 'review_decided', teamId, designId: r.design.id, actorId: userId(r.reviewer), summary: `Rue ${what} "${r.design.title}" r${r.revision}`, path: link, createdAt: decided! }, { transaction });
+      await models.ActivityRecipient.create({ eventId: dv.id, userId: userId(r.by) }, { transaction });
+    }
+    made += 1;
+  }
+  await models.Design.update({ status: 'approved' }, { where: { id: xray.id, status: 'draft' }, transaction, silent: true });
+  await models.Design.update({ status: 'in_review' }, { where: { id: precip.id, status: 'draft' }, transaction, silent: true });
+
+  const xrayDocs = xray.revisions.map((r) => r.document);
+  const precipDocs = precip.revisions.map((r) => r.document);
+  const comments: { id: string; design: DesignSpec; revision: number; by: string; body: string; anchor: CommentAnchor; parent?: string; mentions?: string[]; resolvedBy?: string; hours: number }[] = [
+    { id: id(7, 1), design: xray, revision: 2, by: 'rue', body: 'Nothing discharges this node when the inverter stops: with 2.2 nF per stage it holds charge for hours. Needs a bleeder.', anchor: { kind: 'node', node: outputNode(xrayDocs[1]) }, resolvedBy: 'ada', hours: 18 },
+    { id: id(7, 2), design: xray, revision: 2, by: 'ada', body: '@Rue agreed, 1 GΩ across the output in r3.', anchor: { kind: 'node', node: outputNode(xrayDocs[1]) }, parent: id(7, 1), mentions: ['rue'], hours: 30 },
+    { id: id(7, 3), design: precip, revision: 3, by: 'rue', body: 'The top stage diode sees close to its rating at full drive; is there a part with more headroom? @Dev', anchor: { kind: 'part', blockId: precipDocs[2].blocks.filter((b) => b.kind === 'stage').at(-1)!.id }, mentions: ['dev'], hours: 26 },
+  ];
+  for (const c of comments) {
+    if (await models.Comment.findByPk(c.id, { transaction })) continue;
+    const createdAt = at(c.design.id, c.revision, c.hours);
+    await models.Comment.create(
+      {
+        id: c.id,
+        designId: c.design.id,
+        revision: c.revision,
+        parentId: c.parent ?? null,
+        authorId: userId(c.by),
+        body: c.body,
+        anchor: c.anchor,
+        mentionIds: (c.mentions ?? []).map(userId),
+        resolvedAt: c.resolvedBy ? at(c.design.id, c.revision, c.hours + 14) : null,
+        resolvedById: c.resolvedBy ? userId(c.resolvedBy) : null,
+        createdAt,
+      },
+      { transaction },
+    );
+    const ev = await models.ActivityEvent.create(
+      { kind: c.mentions ? 'mention' : 'comment', teamId, designId: c.design.id, actorId: userId(c.by), summary: `${PEOPLE.find((p) => p.key === c.by)!.name} commented on "${c.design.title}" r${c.revision}`, path: path(c.design.id, c.revision, 'comment', c.parent ?? c.id), createdAt },
+      { transaction },
+    );
+    const to = c.mentions ?? [c.design.author];
+    for (const k of to.filter((k) => k !== c.by)) await models.ActivityRecipient.create({ eventId: ev.id, userId: userId(k) }, { transaction });
+    made += 1;
+  }
+  return made;
+}
 
 async function seed(): Promise<void> {
   const { sequelize, models } = db();
-  const created = { users: 0, teams: 0, designs: 0 };
+  const created = { users: 0, teams: 0, designs: 0, collaboration: 0 };
   const hash = await hashPassword(DEMO_PASSWORD);
   await sequelize.transaction(async (transaction) => {
     for (const [i, p] of PEOPLE.entries()) {
@@ -140,6 +231,7 @@ async function seed(): Promise<void> {
       }
     }
     const start = Date.now() - 30 * DAY_MS;
+    const revisionTimes = new Map<string, number[]>();
     for (const [k, d] of DESIGNS.entries()) {
       if (await models.Design.findByPk(d.id, { transaction })) continue;
       const docs = d.revisions.map((r) => designDocumentSchema.parse(r.document));
@@ -164,8 +256,11 @@ async function seed(): Promise<void> {
         { transaction },
       );
       let at = createdAt.getTime();
+      const times: number[] = [];
+      revisionTimes.set(d.id, times);
       for (const [n, r] of d.revisions.entries()) {
         at += (n === 0 ? 0 : 1 + n) * DAY_MS;
+        times.push(at);
         await models.DesignRevision.create(
           { id: id(4, (k + 1) * 100 + n + 1), designId: d.id, number: n + 1, document: docs[n], authorId: userId(r.author), message: r.message, createdAt: new Date(at) },
           { transaction },
@@ -174,8 +269,9 @@ async function seed(): Promise<void> {
       await sequelize.query('UPDATE designs SET updated_at = :at WHERE id = :id', { replacements: { at: new Date(at), id: d.id }, transaction });
       created.designs += 1;
     }
+    created.collaboration = await seedCollaboration(transaction, revisionTimes);
   });
-  console.log(`[seed] created ${created.users} user(s), ${created.teams} team(s), ${created.designs} design(s) (existing rows left as they were)`);
+  console.log(`[seed] created ${created.users} user(s), ${created.teams} team(s), ${created.designs} design(s), ${created.collaboration} review(s) and comment(s) (existing rows left as they were)`);
   console.log(`[seed] demo sign-ins (password for all: ${DEMO_PASSWORD}):`);
   for (const [i, p] of PEOPLE.entries()) {
     const team = TEAMS.find((t) => t.members.some(([key]) => key === p.key))!;

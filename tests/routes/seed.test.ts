@@ -15,7 +15,10 @@ async function counts() {
   const rows = await db().sequelize.query<Record<string, string>>(
     `SELECT (SELECT count(*) FROM users) AS users, (SELECT count(*) FROM teams) AS teams, (SELECT count(*) FROM memberships) AS memberships,
             (SELECT count(*) FROM designs) AS designs, (SELECT count(*) FROM design_revisions) AS revisions,
-            (SELECT max(updated_at)::text FROM designs) AS last_update`,
+            (SELECT max(updated_at)::text FROM designs) AS last_update,
+            (SELECT count(*) FROM review_requests) AS reviews, (SELECT count(*) FROM approvals) AS approvals,
+            (SELECT count(*) FROM comments) AS comments, (SELECT count(*) FROM activity_events) AS events,
+            (SELECT string_agg(status::text, ',' ORDER BY title) FROM designs) AS statuses`,
     { type: QueryTypes.SELECT },
   );
   return rows[0];
@@ -32,6 +35,9 @@ describe('scripts/seed.ts', () => {
     const first = await counts();
     expect(first).toMatchObject({ users: '5', teams: '2', memberships: '5', designs: '4' });
     expect(Number(first.revisions)).toBeGreaterThanOrEqual(8);
+    // the review story: changes asked at r2, approved at r3; one open review; pinned comments
+    expect(first).toMatchObject({ reviews: '3', approvals: '1', comments: '3', statuses: 'draft,draft,in_review,approved' });
+    expect(Number(first.events)).toBeGreaterThanOrEqual(8);
     runSeed();
     expect(await counts()).toEqual(first);
     const forks = await db().models.Design.findAll({ where: { forkedFromDesignId: { [Op.ne]: null } } });
