@@ -23,6 +23,12 @@ import * as fork from '@/app/api/designs/[designId]/fork/route';
 import * as signup from '@/app/api/account/signup/route';
 import * as password from '@/app/api/account/password/route';
 import * as health from '@/app/api/health/route';
+import * as reviews from '@/app/api/designs/[designId]/reviews/route';
+import * as review from '@/app/api/designs/[designId]/reviews/[reviewId]/route';
+import * as decision from '@/app/api/designs/[designId]/reviews/[reviewId]/decision/route';
+import * as activity from '@/app/api/activity/route';
+import * as notifications from '@/app/api/me/notifications/route';
+import { requestReview } from '@/lib/data/reviews';
 import { createDesign } from '@/lib/data/designs';
 import { hashInvitationToken } from '@/lib/data/invitations';
 import { db } from '@/lib/db';
@@ -51,6 +57,13 @@ let f: Fixtures;
 async function newDesign(author: Who = 'designer', visibility: 'team' | 'private' = 'team'): Promise<string> {
   const { design: d } = await createDesign(f.users[author].id, f.teamId, { title: `Case design ${Math.random().toString(36).slice(2, 7)}`, visibility, document: sampleDocument() });
   return d.id;
+}
+
+/** A designer's design with an open review request naming the reviewer. */
+async function newOpenReview(): Promise<{ designId: string; reviewId: string }> {
+  const designId = await newDesign('designer');
+  const { review: r } = await requestReview(f.users.designer.id, designId, { revision: 1, reviewerIds: [f.users.reviewer.id] });
+  return { designId, reviewId: r.id };
 }
 
 async function newInvitation(): Promise<{ id: string; token: string }> {
@@ -241,6 +254,62 @@ const cases: Case[] = [
       const designId = await newDesign();
       return { path: `/api/designs/${designId}/fork`, params: { designId }, body: {} };
     },
+  },
+  {
+    name: 'GET reviews',
+    handler: reviews.GET,
+    method: 'GET',
+    expect: MEMBERS_READ,
+    prepare: async () => {
+      const { designId } = await newOpenReview();
+      return { path: `/api/designs/${designId}/reviews`, params: { designId } };
+    },
+  },
+  {
+    name: 'POST review request',
+    handler: reviews.POST,
+    method: 'POST',
+    expect: WRITERS(201),
+    prepare: async () => {
+      const designId = await newDesign('designer');
+      return { path: `/api/designs/${designId}/reviews`, params: { designId }, body: { revision: 1, reviewerIds: [f.users.reviewer.id] } };
+    },
+  },
+  {
+    name: "DELETE (withdraw) a designer's review request (requester/author or an owner)",
+    handler: review.DELETE,
+    method: 'DELETE',
+    expect: [200, 200, 403, 403, 404, 401],
+    prepare: async () => {
+      const { designId, reviewId } = await newOpenReview();
+      return { path: `/api/designs/${designId}/reviews/${reviewId}`, params: { designId, reviewId } };
+    },
+  },
+  {
+    name: "POST approve a designer's design (reviewers and owners, not the author)",
+    handler: decision.POST,
+    method: 'POST',
+    expect: [200, 403, 200, 403, 404, 401],
+    prepare: async () => {
+      const { designId, reviewId } = await newOpenReview();
+      return { path: `/api/designs/${designId}/reviews/${reviewId}/decision`, params: { designId, reviewId }, body: { decision: 'approve' } };
+    },
+  },
+  { name: 'GET activity', handler: activity.GET, method: 'GET', expect: ALL_OK(200), prepare: async () => ({ path: '/api/activity', params: {} }) },
+  {
+    name: "GET activity of a team (members only)",
+    handler: activity.GET,
+    method: 'GET',
+    expect: [200, 200, 200, 200, 404, 401],
+    prepare: async () => ({ path: `/api/activity?teamId=${f.teamId}`, params: {} }),
+  },
+  { name: 'GET notification settings', handler: notifications.GET, method: 'GET', expect: ALL_OK(200), prepare: async () => ({ path: '/api/me/notifications', params: {} }) },
+  {
+    name: 'PUT notification settings',
+    handler: notifications.PUT,
+    method: 'PUT',
+    expect: ALL_OK(200),
+    prepare: async () => ({ path: '/api/me/notifications', params: {}, body: { review_requested: true, review_decided: true, mention: false, fork_offered: true, invitation: true } }),
   },
   {
     name: 'POST signup (public)',
