@@ -34,6 +34,7 @@ import { db } from '../db';
 import { AppError, conflict, forbidden, notFound } from '../errors';
 import type { Approval, Design, DesignRevision } from '../../models';
 import { canWrite, loadCaller, requireMember, requireRole, WRITER_ROLES, type Caller } from './access';
+import { recordActivity } from './activity';
 import { approvalDto, reviewDto, revisionSummaryDto, userDto } from './dto';
 import { summariseTopology } from './topology';
 
@@ -342,7 +343,7 @@ export async function saveRevision(userId: string, designId: string, input: Save
 /**
  * Fork: copy revision `revision` (default latest) of a design the caller can read into a new
  * design they author in `teamId` (default the parent's team, where they must be owner or
- * designer). The parent is not touched.
+ * designer). The parent is not touched. A 'forked' event goes to the feed (no mail).
  */
 export async function forkDesign(userId: string, designId: string, input: ForkInput): Promise<DesignDetailDto> {
   const caller = await loadCaller(userId);
@@ -371,6 +372,21 @@ export async function forkDesign(userId: string, designId: string, input: ForkIn
       { transaction },
     );
     await insertRevision(f.id, 1, source.document, userId, `Forked from ${parent.title} r${number}`.slice(0, 500), transaction);
+    // feed only (no mail): addressed to the parent's author when they can open the fork
+    const actor = userDto(await models.User.findByPk(userId, { transaction })).name;
+    const parentAuthor = await loadCaller(parent.authorId, transaction);
+    await recordActivity(
+      {
+        kind: 'forked',
+        teamId,
+        designId: f.id,
+        actorId: userId,
+        summary: `${actor} forked "${parent.title}" r${number} as "${f.title}"`,
+        path: `/designs/${f.id}`,
+        recipients: readable(parentAuthor, f) ? [parent.authorId] : [],
+      },
+      transaction,
+    );
     return f.id;
   });
   return detailDto(caller, await loadReadable(caller, forkId));
