@@ -490,7 +490,7 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
         ) : null}
         <div className="min-w-0 space-y-2">
           <div className="relative h-[66vh] min-h-[28rem] overflow-hidden rounded-lg border border-ink-800" ref={canvasBox}>
-            <EditorCanvas snapshot={snapshot} showDcLabels={dcLabels} />
+            <EditorCanvas snapshot={snapshot} showDcLabels={dcLabels} designId={designId} />
             {lastRefusal ? (
               <div role="alert" data-testid="refusal-message" className="absolute left-1/2 top-3 z-10 flex max-w-[90%] -translate-x-1/2 items-start gap-2 rounded-md border border-hazard-700 bg-ink-900/95 px-3 py-2 text-sm text-hazard-100 shadow-lg">
                 <span>{lastRefusal}</span>

@@ -6,7 +6,7 @@
  * truth and xyflow only renders it. Tray items can be dropped here (HTML5 drag); the pointer
  * over a port, a wire or a block body feeds the hover card.
  */
-import { useCallback, useMemo, useState, type DragEvent } from 'react';
+import { useCallback, useMemo, useRef, useState, type DragEvent } from 'react';
 import {
   Background,
   BackgroundVariant,
@@ -26,6 +26,7 @@ import { blockSize } from '@/lib/circuit/document/geometry';
 import type { TrayItemKey } from '@/lib/circuit/document/tray';
 import { formatSi } from '@/lib/client/format';
 import type { EngineSnapshot, PortKey } from '@/lib/editor/types';
+import { CommentPickHint, CommentPins, useCommentPick } from '@/components/comments/canvas-pins';
 import { BLOCK_NODE_TYPES, type BlockNode } from './block-nodes';
 import { applySelect, blockFaults, dcLabelPlacements, type Fault } from './canvas-model';
 import { useHoverApi } from './hover-store';
@@ -125,10 +126,12 @@ function DcLabels({ snapshot, document }: { snapshot: EngineSnapshot; document: 
 export interface EditorCanvasProps {
   snapshot: EngineSnapshot;
   showDcLabels: boolean;
+  /** The design shown: its comment pins and "pin a comment" pick mode, when its comments list is on the page. */
+  designId?: string;
 }
 
 /** The canvas; must sit inside a `<ReactFlowProvider>` and the editor's store and hover contexts. */
-export function EditorCanvas({ snapshot, showDcLabels }: EditorCanvasProps) {
+export function EditorCanvas({ snapshot, showDcLabels, designId }: EditorCanvasProps) {
   const api = useEditorApi();
   const hover = useHoverApi();
   const document = useEditor((s) => s.document);
@@ -141,6 +144,8 @@ export function EditorCanvas({ snapshot, showDcLabels }: EditorCanvasProps) {
   // Fit the view once, to a drawing that is already there when the editor opens: on an empty
   // canvas xyflow would otherwise zoom in to 3× on the first block dropped.
   const [fitOnOpen] = useState(() => document.blocks.length > 0);
+  const box = useRef<HTMLDivElement>(null);
+  const picking = useCommentPick(box, designId, snapshot, document);
 
   const onNodesChange = useCallback(
     (changes: NodeChange<BlockNode>[]) => {
@@ -202,7 +207,9 @@ export function EditorCanvas({ snapshot, showDcLabels }: EditorCanvasProps) {
 
   return (
     <div
-      className={`kr-canvas relative h-full w-full ${readOnly ? 'kr-readonly' : ''}`}
+      ref={box}
+      className={`kr-canvas relative h-full w-full ${readOnly ? 'kr-readonly' : ''} ${picking ? 'cursor-crosshair [&_.react-flow__edge]:cursor-crosshair [&_.react-flow__handle]:cursor-crosshair [&_.react-flow__node]:cursor-crosshair' : ''}`}
+      data-picking={picking ? 'true' : undefined}
       onDragOver={onDragOver}
       onDrop={onDrop}
       onPointerMove={(e) => hover.getState().move(e.clientX, e.clientY)}
@@ -244,7 +251,9 @@ export function EditorCanvas({ snapshot, showDcLabels }: EditorCanvasProps) {
         <Controls showInteractive={false} position="bottom-left" />
         <MiniMap pannable zoomable position="bottom-right" nodeColor="#46545f" maskColor="rgb(20 26 31 / 0.7)" />
         {showDcLabels ? <DcLabels snapshot={snapshot} document={document} /> : null}
+        <CommentPins designId={designId} snapshot={snapshot} document={document} />
       </ReactFlow>
+      <CommentPickHint designId={designId} />
     </div>
   );
 }
