@@ -1,7 +1,7 @@
 'use client';
 
 import Link from 'next/link';
-import { useRouter } from 'next/navigation';
+import { useRouter, useSearchParams } from 'next/navigation';
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Badge, Notice, Panel, Skeleton } from '@/components/ui/notice';
@@ -11,6 +11,8 @@ import { formatDateTime, statusLabel } from '@/lib/client/format';
 import { useDesign, useForkDesign, useMe, useRevision, useRevisions, useUpdateDesign } from '@/lib/client/hooks';
 import { DesignEditor } from '@/components/editor/design-editor';
 import { DocumentSummaryView } from './document-summary-view';
+import { LineagePanel } from './lineage-panel';
+import { ReviewPanel } from './review-panel';
 
 function Actions({ design, revision }: { design: DesignDetailDto; revision: number | null }) {
   const router = useRouter();
@@ -96,16 +98,26 @@ function Revisions({ designId, latest, selected, onSelect }: { designId: string;
   );
 }
 
+/** A positive revision number from a query value, else null. */
+function revisionParam(v: string | null): number | null {
+  if (!v || !/^[1-9][0-9]{0,8}$/.test(v)) return null;
+  return Number(v);
+}
+
 /**
  * The design page: header, lineage and actions, the editor (the working copy on the latest
- * revision; an older revision picked in the history opens read-only in its place), revision
- * history, forks and the high-voltage caution.
+ * revision; an older revision picked in the history opens read-only in its place), review and
+ * sign-off, revision history, lineage and offers, and the high-voltage caution. A link may name
+ * `?revision=` (opened in the editor) and `?review=` (the review panel scrolled into view).
  */
 export function DesignRoot({ designId }: { designId: string }) {
   const design = useDesign(designId);
-  const [chosen, setChosen] = useState<number | null>(null);
+  const search = useSearchParams();
+  const focusReviewId = search.get('review');
+  const [chosen, setChosen] = useState<number | null>(() => revisionParam(search.get('revision')));
   const latestNumber = design.data?.revision.number ?? null;
-  const showing = chosen !== null && chosen !== latestNumber ? chosen : null;
+  // An older revision opens read-only in place of the working copy; the latest (or a number past it) is the working copy.
+  const showing = chosen !== null && latestNumber !== null && chosen < latestNumber ? chosen : null;
   const other = useRevision(designId, showing);
   const me = useMe();
   const [editHere, setEditHere] = useState(false);
@@ -125,6 +137,8 @@ export function DesignRoot({ designId }: { designId: string }) {
   const p = d.permissions;
   // A teammate's design opens to view; editing it in place is a deliberate choice.
   const viewingColleague = me.data?.user.id !== d.author.id && p.edit && !d.archived && !editHere;
+  const userId = me.data?.user.id ?? '';
+  const role = me.data?.teams.find((t) => t.id === d.teamId)?.role;
 
   return (
     <div className="space-y-5">
@@ -214,31 +228,19 @@ export function DesignRoot({ designId }: { designId: string }) {
             discharged and measured, and have the build checked against your local codes by licensed people.
           </p>
 
+          <ReviewPanel design={d} userId={userId} role={role} focusReviewId={focusReviewId} />
+
           <Panel title={<span>Stored revision r{selected} in brief</span>} testId="summary-panel">
             <DocumentSummaryView document={rev.document} topology={rev.number === d.latestRevision ? d.topology : undefined} />
           </Panel>
-
-          {d.forks.length > 0 ? (
-            <Panel title="Forks" testId="forks-panel">
-              <ul className="space-y-1 text-sm">
-                {d.forks.map((f) => (
-                  <li key={f.designId}>
-                    <Link href={`/designs/${f.designId}`} className="rounded text-lagoon-400 hover:underline">
-                      {f.title}
-                    </Link>{' '}
-                    <span className="text-ink-400">
-                      by {f.author.name || f.author.email}, from r{f.revision}
-                    </span>
-                  </li>
-                ))}
-              </ul>
-            </Panel>
-          ) : null}
         </div>
 
-        <Panel title="Revision history">
-          <Revisions designId={designId} latest={d.latestRevision} selected={selected} onSelect={setChosen} />
-        </Panel>
+        <div className="space-y-5">
+          <Panel title="Revision history">
+            <Revisions designId={designId} latest={d.latestRevision} selected={selected} onSelect={setChosen} />
+          </Panel>
+          <LineagePanel design={d} userId={userId} />
+        </div>
       </div>
     </div>
   );

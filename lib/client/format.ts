@@ -33,9 +33,50 @@ export function statusLabel(status: string): string {
       return 'Approved';
     case 'changes_requested':
       return 'Changes requested';
+    case 'changed_since_approval':
+      return 'Changed since approval';
     default:
       return status;
   }
+}
+
+/** Human label for the state of a review request. */
+export function reviewStateLabel(state: string): string {
+  switch (state) {
+    case 'open':
+      return 'Waiting for a decision';
+    case 'approved':
+      return 'Approved';
+    case 'changes_requested':
+      return 'Changes asked for';
+    case 'withdrawn':
+      return 'Withdrawn';
+    case 'superseded':
+      return 'Replaced by a newer request';
+    default:
+      return state;
+  }
+}
+
+/** Human label for the state of a fork offered back to its parent. */
+export function offerStateLabel(state: string): string {
+  switch (state) {
+    case 'open':
+      return 'Waiting for the parent\u2019s owner';
+    case 'accepted':
+      return 'Accepted';
+    case 'declined':
+      return 'Declined';
+    case 'withdrawn':
+      return 'Withdrawn';
+    default:
+      return state;
+  }
+}
+
+/** A user's display name: their name, or their e-mail when they have not given one. */
+export function personName(user: { name: string; email: string }): string {
+  return user.name || user.email;
 }
 
 /** Human label for a recognised topology. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatDateTime, formatSi, statusLabel, topologyLabel } from '@/lib/client/format';
+import { formatDateTime, formatSi, offerStateLabel, personName, reviewStateLabel, statusLabel, topologyLabel } from '@/lib/client/format';
 
 // SI prefixes per the BIPM SI Brochure, 9th edition (2019), §3 (from memory): k = 1e3, n = 1e-9, µ = 1e-6.
 describe('formatSi', () => {
@@ -38,5 +38,17 @@ describe('labels', () => {
     expect(statusLabel('in_review')).toBe('In review');
     expect(topologyLabel('full-wave')).toBe('Full-wave ladder');
     expect(topologyLabel(null)).toBe('Not recognised');
+  });
+  it('names every design status, including changed since approval', () => {
+    expect(statusLabel('changed_since_approval')).toBe('Changed since approval');
+    expect(statusLabel('changes_requested')).toBe('Changes requested');
+    expect(statusLabel('draft')).toBe('Draft');
+  });
+  it('names review and offer states and people', () => {
+    expect(reviewStateLabel('superseded')).toBe('Replaced by a newer request');
+    expect(reviewStateLabel('changes_requested')).toBe('Changes asked for');
+    expect(offerStateLabel('accepted')).toBe('Accepted');
+    expect(personName({ name: '', email: 'a@b.test' })).toBe('a@b.test');
+    expect(personName({ name: 'Ada Vale', email: 'a@b.test' })).toBe('Ada Vale');
   });
 });
