@@ -12,6 +12,9 @@ export function AppHeader({ userLabel }: { userLabel: string }) {
           <Link href="/teams" className="rounded px-2 py-1 text-ink-200 hover:bg-ink-800 hover:text-ink-50">
             Teams
           </Link>
+          <Link href="/activity" className="rounded px-2 py-1 text-ink-200 hover:bg-ink-800 hover:text-ink-50" data-testid="nav-activity">
+            Activity
+          </Link>
           <Link href="/account" className="rounded px-2 py-1 text-ink-200 hover:bg-ink-800 hover:text-ink-50">
             Account
           </Link>
