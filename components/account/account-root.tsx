@@ -1,5 +1,6 @@
 'use client';
 
+import Link from 'next/link';
 import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
@@ -44,6 +45,15 @@ export function AccountRoot({ name, email }: { name: string; email: string }) {
           </p>
           <SignOutButton />
         </div>
+      </Panel>
+      <Panel title="E-mail notifications">
+        <p className="text-sm text-ink-200">
+          Choose which events also reach you by e-mail:{' '}
+          <Link href="/settings/notifications" className="rounded text-lagoon-400 hover:underline" data-testid="account-notifications-link">
+            notification settings
+          </Link>
+          .
+        </p>
       </Panel>
       <Panel title="Change password">
         <form onSubmit={onSubmit} className="space-y-3" data-testid="password-form" noValidate>
