@@ -13,6 +13,7 @@ import { env } from '../env';
 import { AppError, conflict, forbidden, notFound } from '../errors';
 import { invitationMessage, sendMail } from '../mail';
 import { loadCaller, requireRole } from './access';
+import { mutedAmong, recordActivity } from './activity';
 import { invitationDto, userDto } from './dto';
 
 /** How long an invitation stays valid (ms): 7 days. */
@@ -34,7 +35,8 @@ export async function listInvitations(userId: string, teamId: string): Promise<I
 /**
  * Invite `email` with `role` (owner only) and mail the accept link. 409 `exists` when the
  * address already belongs to a member; an older pending invitation for the same address is
- * replaced.
+ * replaced. When the address belongs to an existing user, an 'invitation' event addressed to
+ * them alone carries the same link, and no mail is sent if they turned invitation mail off.
  */
 export async function createInvitation(userId: string, teamId: string, email: string, role: Role): Promise<InvitationDto> {
   requireRole(await loadCaller(userId), teamId, ['owner']);
@@ -45,22 +47,50 @@ export async function createInvitation(userId: string, teamId: string, email: st
     throw new AppError('exists', `${address} is already a member of this team`, { field: 'email' });
   }
   const token = randomBytes(32).toString('base64url');
-  const invitation = await sequelize.transaction(async (transaction) => {
+  const [team, inviter] = await Promise.all([models.Team.findByPk(teamId), models.User.findByPk(userId)]);
+  const muted = existingUser ? (await mutedAmong([existingUser.id], 'invitation')).has(existingUser.id) : false;
+  const { invitation, eventId } = await sequelize.transaction(async (transaction) => {
     await models.Invitation.destroy({ where: { teamId, email: address, acceptedAt: null }, transaction });
-    return models.Invitation.create(
+    const created = await models.Invitation.create(
       { teamId, email: address, role, tokenHash: hashInvitationToken(token), invitedById: userId, expiresAt: new Date(Date.now() + INVITATION_TTL_MS), acceptedAt: null, acceptedById: null },
       { transaction },
     );
+    // someone who already has an account also finds the invitation in their activity feed (shown
+    // to them alone); the replaced invitation's event, whose link no longer works, goes
+    if (existingUser) {
+      await sequelize.query(
+        `DELETE FROM activity_events e USING activity_recipients r
+          WHERE r.event_id = e.id AND r.user_id = :userId AND e.team_id = :teamId AND e.kind = 'invitation'`,
+        { replacements: { userId: existingUser.id, teamId }, transaction },
+      );
+    }
+    const event = existingUser
+      ? await recordActivity(
+          {
+            kind: 'invitation',
+            teamId,
+            designId: null,
+            actorId: userId,
+            summary: `${userDto(inviter).name} invited you to join "${team?.name ?? 'a team'}" as ${role}`,
+            path: `/invitations/${token}`,
+            recipients: [existingUser.id],
+          },
+          transaction,
+        )
+      : null;
+    return { invitation: created, eventId: event };
   });
-  const [team, inviter] = await Promise.all([models.Team.findByPk(teamId), models.User.findByPk(userId)]);
   invitation.invitedBy = inviter ?? undefined;
   const url = `${env().NEXTAUTH_URL.replace(/\/$/, '')}/invitations/${token}`;
-  try {
-    await sendMail(invitationMessage({ to: address, url, teamName: team?.name ?? 'a team', inviterName: userDto(inviter).name, role, expiresAt: invitation.expiresAt }));
-  } catch (e) {
-    // an invitation nobody can receive is useless: take it back and report the failure
-    await invitation.destroy();
-    throw e;
+  if (!muted) {
+    try {
+      await sendMail(invitationMessage({ to: address, url, teamName: team?.name ?? 'a team', inviterName: userDto(inviter).name, role, expiresAt: invitation.expiresAt }));
+    } catch (e) {
+      // an invitation nobody can receive is useless: take it back and report the failure
+      await invitation.destroy();
+      if (eventId) await models.ActivityEvent.destroy({ where: { id: eventId } });
+      throw e;
+    }
   }
   return invitationDto(invitation);
 }
