@@ -42,6 +42,8 @@ export interface BlockChange {
   category: ChangeCategory;
   /** Changed values (for `changed`), or every value of the block (for `added` / `removed`). */
   fields: FieldChange[];
+  /** For `changed`: the designator before and after, when the block was relabelled. */
+  relabelled?: { before: string; after: string };
   /** One line: `pumping C · capacitance 4.7 nF → 10 nF; …`, or `added` / `removed` with the block's main values. */
   summary: string;
 }
@@ -279,6 +281,7 @@ export function diffDesigns(a: DesignDocument, b: DesignDocument): DesignDiff {
       blockKind: after.kind,
       category: categoryOf(after.kind),
       fields,
+      ...(relabelled ? { relabelled } : {}),
       summary: summaryOf('changed', after, fields, relabelled),
     });
   }

@@ -7,3 +7,4 @@
 export * from './diff';
 export * from './results';
 export * from './format';
+export * from './view';
