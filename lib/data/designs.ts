@@ -66,7 +66,7 @@ const includeForList = () => {
   const { User, Design: D } = db().models;
   return [
     { model: User, as: 'author' },
-    { model: D, as: 'forkedFrom', attributes: ['id', 'title', 'teamId', 'visibility', 'authorId'] },
+    { model: D, as: 'forkedFrom', attributes: ['id', 'title', 'teamId', 'visibility', 'authorId', 'archivedAt'] },
   ];
 };
 
@@ -137,7 +137,9 @@ export async function detailDto(caller: Caller, d: Design): Promise<DesignDetail
       requestReview: canWrite(role) && d.archivedAt === null,
       decideReview: DECIDER_ROLES.includes(role) && !isAuthor && d.archivedAt === null,
       comment: role !== 'viewer',
-      offerBack: isAuthor && d.archivedAt === null && !!d.forkedFrom && readable(caller, d.forkedFrom),
+      // the cheap half of lib/data/offers.ts createOffer's checks (the server still decides)
+      offerBack:
+        isAuthor && canWrite(role) && d.archivedAt === null && d.visibility === 'team' && !!d.forkedFrom && readable(caller, d.forkedFrom) && d.forkedFrom.archivedAt === null,
     },
     forks: forks
       .filter((f) => readable(caller, f))

@@ -211,10 +211,14 @@ describe('offering back', () => {
     const privateFork = await fork(parent.id, f.users.designer);
     expect((await patch(privateFork.id, f.users.designer, { visibility: 'private' })).status).toBe(200);
     expect((await offerBack(privateFork.id, f.users.designer)).status).toBe(409);
+    // the detail's permission agrees with the server, so the page never offers a button that fails
+    expect((await detail(archivedFork.id, f.users.designer)).permissions.offerBack).toBe(false);
+    expect((await detail(privateFork.id, f.users.designer)).permissions.offerBack).toBe(false);
 
     const openFork = await fork(parent.id, f.users.designer);
     expect((await patch(parent.id, f.users.owner, { archived: true })).status).toBe(200);
     expect((await offerBack(openFork.id, f.users.designer)).status).toBe(409);
+    expect((await detail(openFork.id, f.users.designer)).permissions.offerBack).toBe(false);
     expect((await patch(parent.id, f.users.owner, { archived: false })).status).toBe(200);
     expect((await patch(parent.id, f.users.owner, { visibility: 'private' })).status).toBe(200);
     const hidden = await offerBack(openFork.id, f.users.designer);
