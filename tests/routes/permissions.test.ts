@@ -28,8 +28,15 @@ import * as review from '@/app/api/designs/[designId]/reviews/[reviewId]/route';
 import * as decision from '@/app/api/designs/[designId]/reviews/[reviewId]/decision/route';
 import * as activity from '@/app/api/activity/route';
 import * as notifications from '@/app/api/me/notifications/route';
+import * as designComments from '@/app/api/designs/[designId]/comments/route';
+import * as comment from '@/app/api/comments/[commentId]/route';
+import { createComment } from '@/lib/data/comments';
+import * as offers from '@/app/api/designs/[designId]/offers/route';
+import * as offer from '@/app/api/offers/[offerId]/route';
+import * as offerDecision from '@/app/api/offers/[offerId]/decision/route';
 import { requestReview } from '@/lib/data/reviews';
-import { createDesign } from '@/lib/data/designs';
+import { createOffer } from '@/lib/data/offers';
+import { createDesign, forkDesign } from '@/lib/data/designs';
 import { hashInvitationToken } from '@/lib/data/invitations';
 import { db } from '@/lib/db';
 import { addMember, call, freshEmail, makeUser, PASSWORD, sampleDocument, setupFixtures, teardown, type AnyHandler, type Fixtures, type Who } from './helpers';
@@ -64,6 +71,14 @@ async function newOpenReview(): Promise<{ designId: string; reviewId: string }> 
   const designId = await newDesign('designer');
   const { review: r } = await requestReview(f.users.designer.id, designId, { revision: 1, reviewerIds: [f.users.reviewer.id] });
   return { designId, reviewId: r.id };
+}
+
+/** An owner's design, the designer's fork of it, and the designer's open offer back. */
+async function newOffer(): Promise<{ parentId: string; forkId: string; offerId: string }> {
+  const parentId = await newDesign('owner');
+  const forkId = (await forkDesign(f.users.designer.id, parentId, {})).id;
+  const { offer: o } = await createOffer(f.users.designer.id, forkId, {});
+  return { parentId, forkId, offerId: o.id };
 }
 
 async function newInvitation(): Promise<{ id: string; token: string }> {
@@ -295,6 +310,46 @@ const cases: Case[] = [
       return { path: `/api/designs/${designId}/reviews/${reviewId}/decision`, params: { designId, reviewId }, body: { decision: 'approve' } };
     },
   },
+  {
+    name: "POST offer back of the designer's fork (its author only)",
+    handler: offers.POST,
+    method: 'POST',
+    expect: [403, 201, 403, 403, 404, 401],
+    prepare: async () => {
+      const designId = (await forkDesign(f.users.designer.id, await newDesign('owner'), {})).id;
+      return { path: `/api/designs/${designId}/offers`, params: { designId }, body: { message: 'bigger capacitors' } };
+    },
+  },
+  {
+    name: 'GET offers',
+    handler: offers.GET,
+    method: 'GET',
+    expect: MEMBERS_READ,
+    prepare: async () => {
+      const { parentId } = await newOffer();
+      return { path: `/api/designs/${parentId}/offers`, params: { designId: parentId } };
+    },
+  },
+  {
+    name: "POST accept an offer to the owner's design (its author or an owner)",
+    handler: offerDecision.POST,
+    method: 'POST',
+    expect: [200, 403, 403, 403, 404, 401],
+    prepare: async () => {
+      const { offerId } = await newOffer();
+      return { path: `/api/offers/${offerId}/decision`, params: { offerId }, body: { decision: 'accept', parentBaseRevision: 1 } };
+    },
+  },
+  {
+    name: 'DELETE (withdraw) an offer (the offerer only)',
+    handler: offer.DELETE,
+    method: 'DELETE',
+    expect: [403, 200, 403, 403, 404, 401],
+    prepare: async () => {
+      const { offerId } = await newOffer();
+      return { path: `/api/offers/${offerId}`, params: { offerId } };
+    },
+  },
   { name: 'GET activity', handler: activity.GET, method: 'GET', expect: ALL_OK(200), prepare: async () => ({ path: '/api/activity', params: {} }) },
   {
     name: "GET activity of a team (members only)",
@@ -302,6 +357,37 @@ const cases: Case[] = [
     method: 'GET',
     expect: [200, 200, 200, 200, 404, 401],
     prepare: async () => ({ path: `/api/activity?teamId=${f.teamId}`, params: {} }),
+  },
+  {
+    name: 'GET comments of a design (readers)',
+    handler: designComments.GET,
+    method: 'GET',
+    expect: MEMBERS_READ,
+    prepare: async () => {
+      const designId = await newDesign('designer');
+      return { path: `/api/designs/${designId}/comments`, params: { designId } };
+    },
+  },
+  {
+    name: 'POST comment (owners, designers, reviewers)',
+    handler: designComments.POST,
+    method: 'POST',
+    expect: [201, 201, 201, 403, 404, 401],
+    prepare: async () => {
+      const designId = await newDesign('designer');
+      return { path: `/api/designs/${designId}/comments`, params: { designId }, body: { revision: 1, body: 'check C2', anchor: { kind: 'part', blockId: 's2', part: 'pumpC' } } };
+    },
+  },
+  {
+    name: 'PATCH comment resolved (owners, designers, reviewers)',
+    handler: comment.PATCH,
+    method: 'PATCH',
+    expect: [200, 200, 200, 403, 404, 401],
+    prepare: async () => {
+      const designId = await newDesign('designer');
+      const c = await createComment(f.users.reviewer.id, designId, { revision: 1, body: 'open point', anchor: { kind: 'design' } });
+      return { path: `/api/comments/${c.id}`, params: { commentId: c.id }, body: { resolved: true } };
+    },
   },
   { name: 'GET notification settings', handler: notifications.GET, method: 'GET', expect: ALL_OK(200), prepare: async () => ({ path: '/api/me/notifications', params: {} }) },
   {
