@@ -9,6 +9,7 @@ import type { DesignDetailDto } from '@/lib/api/contract';
 import { ApiError, formError } from '@/lib/client/api';
 import { formatDateTime, statusLabel } from '@/lib/client/format';
 import { useDesign, useForkDesign, useMe, useRevision, useRevisions, useUpdateDesign } from '@/lib/client/hooks';
+import { CommentsPanel } from '@/components/comments/comments-panel';
 import { DesignEditor } from '@/components/editor/design-editor';
 import { DocumentSummaryView } from './document-summary-view';
 import { LineagePanel } from './lineage-panel';
@@ -108,7 +109,8 @@ function revisionParam(v: string | null): number | null {
  * The design page: header, lineage and actions, the editor (the working copy on the latest
  * revision; an older revision picked in the history opens read-only in its place), review and
  * sign-off, revision history, lineage and offers, and the high-voltage caution. A link may name
- * `?revision=` (opened in the editor) and `?review=` (the review panel scrolled into view).
+ * `?revision=` (opened in the editor), `?review=` (the review panel scrolled into view) and
+ * `?comment=` (that comment focused in the comments panel).
  */
 export function DesignRoot({ designId }: { designId: string }) {
   const design = useDesign(designId);
@@ -229,6 +231,8 @@ export function DesignRoot({ designId }: { designId: string }) {
           </p>
 
           <ReviewPanel design={d} userId={userId} role={role} focusReviewId={focusReviewId} />
+
+          <CommentsPanel designId={d.id} teamId={d.teamId} revision={selected} canComment={p.comment} focusCommentId={search.get('comment')} />
 
           <Panel title={<span>Stored revision r{selected} in brief</span>} testId="summary-panel">
             <DocumentSummaryView document={rev.document} topology={rev.number === d.latestRevision ? d.topology : undefined} />
