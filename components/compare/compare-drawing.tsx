@@ -21,7 +21,8 @@ const OUTLINE: Record<ChangeKind, { className: string; dash?: string; width: num
   changed: { className: 'stroke-ink-50', dash: '2 4', width: 3 },
 };
 
-const PAD = 40;
+/** Margin around the drawing (px), room for the change tags above the top row. */
+const PAD = 48;
 
 function valueLine(block: DesignBlock): string {
   switch (block.kind) {
@@ -64,16 +65,16 @@ function Block({ block, change, hatchId }: { block: DesignBlock; change: ChangeK
       {change === 'removed' ? <rect x={x} y={y} width={width} height={height} rx={6} fill={`url(#${hatchId})`} opacity={0.35} /> : null}
       {o ? <rect x={x - 4} y={y - 4} width={width + 8} height={height + 8} rx={9} fill="none" className={o.className} strokeWidth={o.width} strokeDasharray={o.dash} /> : null}
       {change === 'changed' ? <rect x={x + 4} y={y + 4} width={width - 8} height={height - 8} rx={4} fill="none" className="stroke-ink-50" strokeWidth={1} /> : null}
-      <text x={x + 8} y={y + 18} fontSize={13} fontWeight={600} className="fill-ink-50">
+      <text x={x + 8} y={y + 24} fontSize={Math.min(20, width / 4)} fontWeight={600} className="fill-ink-50">
         {designatorOf(block)}
       </text>
       {values ? (
-        <text x={x + 8} y={y + height - 10} fontSize={11} className="fill-ink-200">
+        <text x={x + 8} y={y + height - 10} fontSize={Math.max(12, Math.min(16, width / 8))} className="fill-ink-200">
           {values}
         </text>
       ) : null}
       {change ? (
-        <text x={x + width} y={y - 10} fontSize={12} fontWeight={700} textAnchor="end" className={change === 'added' ? 'fill-lagoon-400' : change === 'removed' ? 'fill-copper-400' : 'fill-ink-50'}>
+        <text x={x + width} y={y - 12} fontSize={18} fontWeight={700} textAnchor="end" className={change === 'added' ? 'fill-lagoon-400' : change === 'removed' ? 'fill-copper-400' : 'fill-ink-50'}>
           {CHANGE_TAG[change]}
         </text>
       ) : null}

@@ -262,7 +262,12 @@ export function DrawingPair({ view }: { view: ComparisonView }) {
 export function OfferActionsSlot({ offerId, children }: { offerId: string; children?: ReactNode }) {
   return (
     <div data-testid="offer-actions-slot" data-offer={offerId} className="rounded-lg border border-copper-600 bg-copper-800/20 p-4">
-      {children ?? <p className="text-sm text-copper-100">This comparison is for an offer back. Decide it from the parent design once the changes above are reviewed.</p>}
+      {children ?? (
+        <p className="text-sm text-copper-100">
+          This comparison is for a fork offered back to its parent: its changes become a new revision of the parent only when the parent’s owner accepts
+          them. Accepting records a colleague’s review of the drawing, not that the supply is safe.
+        </p>
+      )}
     </div>
   );
 }
