@@ -5,7 +5,8 @@
  * outline pattern, a text tag and a colour — so the marks read without colour (never a
  * red/green pair): added = solid heavy teal outline and "+ added"; removed = dashed copper
  * outline over hatching and "− removed"; changed = dotted light outline with a second inner
- * outline and "~ changed".
+ * outline and "~ changed". Wires only on one side are drawn heavy and dashed in that side's
+ * added (teal, after) or removed (copper, before) colour.
  */
 import type { DesignBlock, DesignDocument } from '@/lib/circuit/document/schema';
 import { blockSize, portPosition } from '@/lib/circuit/document/geometry';
@@ -82,9 +83,8 @@ function Block({ block, change, hatchId }: { block: DesignBlock; change: ChangeK
   );
 }
 
-/** One side's drawing, scaled to its container's width. */
-export function CompareDrawing({ document, highlight, title, side }: { document: DesignDocument; highlight: Record<string, ChangeKind>; title: string; side: 'a' | 'b' }) {
-  const byId = new Map(document.blocks.map((b) => [b.id, b] as const));
+/** The extent of a document's blocks (px); a 200 × 100 box at the origin for an empty drawing. */
+export function drawingBounds(document: DesignDocument): { minX: number; minY: number; maxX: number; maxY: number } {
   let minX = Infinity;
   let minY = Infinity;
   let maxX = -Infinity;
@@ -96,12 +96,34 @@ export function CompareDrawing({ document, highlight, title, side }: { document:
     maxX = Math.max(maxX, b.position.x + width);
     maxY = Math.max(maxY, b.position.y + height);
   }
-  if (!Number.isFinite(minX)) {
-    minX = 0;
-    minY = 0;
-    maxX = 200;
-    maxY = 100;
-  }
+  if (!Number.isFinite(minX)) return { minX: 0, minY: 0, maxX: 200, maxY: 100 };
+  return { minX, minY, maxX, maxY };
+}
+
+/** Width over height of a drawing with its margin. */
+export function drawingAspect(document: DesignDocument): number {
+  const { minX, minY, maxX, maxY } = drawingBounds(document);
+  return (maxX - minX + 2 * PAD) / (maxY - minY + 2 * PAD);
+}
+
+/** One side's drawing, scaled to its container's width. */
+export function CompareDrawing({
+  document,
+  highlight,
+  wiresOnlyHere,
+  title,
+  side,
+}: {
+  document: DesignDocument;
+  highlight: Record<string, ChangeKind>;
+  /** Wires the other side does not have: drawn heavier and dashed, in the side's added/removed colour. */
+  wiresOnlyHere: readonly string[];
+  title: string;
+  side: 'a' | 'b';
+}) {
+  const marked = new Set(wiresOnlyHere);
+  const byId = new Map(document.blocks.map((b) => [b.id, b] as const));
+  const { minX, minY, maxX, maxY } = drawingBounds(document);
   const viewBox = `${minX - PAD} ${minY - PAD} ${maxX - minX + 2 * PAD} ${maxY - minY + 2 * PAD}`;
   const hatchId = `compare-hatch-${side}`;
   return (
@@ -118,7 +140,19 @@ export function CompareDrawing({ document, highlight, title, side }: { document:
           const q = t ? portPosition(t, w.targetPort) : null;
           if (!p || !q) return null;
           const midX = (p.x + q.x) / 2;
-          return <polyline key={w.id} points={`${p.x},${p.y} ${midX},${p.y} ${midX},${q.y} ${q.x},${q.y}`} fill="none" className="stroke-ink-400" strokeWidth={1.5} />;
+          const only = marked.has(w.id);
+          return (
+            <polyline
+              key={w.id}
+              points={`${p.x},${p.y} ${midX},${p.y} ${midX},${q.y} ${q.x},${q.y}`}
+              fill="none"
+              className={only ? (side === 'b' ? 'stroke-lagoon-400' : 'stroke-copper-400') : 'stroke-ink-400'}
+              strokeWidth={only ? 4 : 1.5}
+              strokeDasharray={only ? '12 6' : undefined}
+              data-testid={only ? 'compare-wire-only-here' : undefined}
+              data-wire={w.id}
+            />
+          );
         })}
         {document.blocks.map((b) => (
           <Block key={b.id} block={b} change={highlight[b.id]} hatchId={hatchId} />
@@ -154,10 +188,19 @@ export function CompareLegend() {
           </svg>
           <span>
             <strong className="font-semibold text-ink-50">{CHANGE_TAG[k]}</strong>
-            {k === 'added' ? ' — only in the newer side (right)' : k === 'removed' ? ' — only in the older side (left)' : ' — values differ'}
+            {k === 'added' ? ' — only in the newer side (after)' : k === 'removed' ? ' — only in the older side (before)' : ' — values differ'}
           </span>
         </li>
       ))}
+      <li className="flex items-center gap-2">
+        <svg width={34} height={18} viewBox="0 0 34 18" aria-hidden="true">
+          <line x1={2} y1={6} x2={32} y2={6} className="stroke-lagoon-400" strokeWidth={2.5} strokeDasharray="7 3" />
+          <line x1={2} y1={13} x2={32} y2={13} className="stroke-copper-400" strokeWidth={2.5} strokeDasharray="7 3" />
+        </svg>
+        <span>
+          <strong className="font-semibold text-ink-50">heavy dashed wire</strong> — a wire only on that side
+        </span>
+      </li>
     </ul>
   );
 }

@@ -16,7 +16,7 @@ import {
   type ComparisonView,
   type MetricRow,
 } from '@/lib/compare';
-import { CHANGE_TAG, CompareDrawing, CompareLegend } from './compare-drawing';
+import { CHANGE_TAG, CompareDrawing, CompareLegend, drawingAspect } from './compare-drawing';
 import { RevisionPickers, type PickerSide } from './revision-pickers';
 
 const TAG_CLASS: Record<BlockChange['kind'], string> = {
@@ -240,15 +240,19 @@ export function ResultsTable({ view }: { view: ComparisonView }) {
   );
 }
 
-/** The two drawings side by side with the key to their marks. */
+/** Drawings wider than this (width / height) are set one above the other, so a long ladder stays legible. */
+const STACK_ASPECT = 3;
+
+/** The two drawings side by side (or, for long ladders, before above after, stage under stage) with the key to their marks. */
 export function DrawingPair({ view }: { view: ComparisonView }) {
+  const stacked = Math.max(drawingAspect(view.a.document), drawingAspect(view.b.document)) > STACK_ASPECT;
   return (
     <Panel title="On the drawings" testId="compare-drawings">
       <div className="space-y-3">
         <CompareLegend />
-        <div className="grid gap-4 lg:grid-cols-2">
-          <CompareDrawing document={view.a.document} highlight={view.a.highlight} title={`Before · ${sideName(view, 'a')}`} side="a" />
-          <CompareDrawing document={view.b.document} highlight={view.b.highlight} title={`After · ${sideName(view, 'b')}`} side="b" />
+        <div className={`grid gap-4 ${stacked ? '' : 'lg:grid-cols-2'}`} data-layout={stacked ? 'stacked' : 'side-by-side'}>
+          <CompareDrawing document={view.a.document} highlight={view.a.highlight} wiresOnlyHere={view.a.wiresOnlyHere} title={`Before · ${sideName(view, 'a')}`} side="a" />
+          <CompareDrawing document={view.b.document} highlight={view.b.highlight} wiresOnlyHere={view.b.wiresOnlyHere} title={`After · ${sideName(view, 'b')}`} side="b" />
         </div>
       </div>
     </Panel>

@@ -33,6 +33,8 @@ export interface CompareSide extends CompareSideInput {
   results: DesignResults;
   /** blockId → how it differs, for this side's drawing (added ones only on b, removed only on a). */
   highlight: Record<string, ChangeKind>;
+  /** Ids of this side's wires the other side does not have (a: removed wires, b: added wires). */
+  wiresOnlyHere: string[];
 }
 
 /** How the two sides relate: two revisions of one design, or a fork and its parent. */
@@ -57,6 +59,19 @@ export function highlights(diff: DesignDiff): { a: Record<string, ChangeKind>; b
   return { a, b };
 }
 
+/** A wire by its two ends, either way round (as lib/editor/compare.ts matches wires). */
+function wireKey(w: DesignDocument['wires'][number]): string {
+  const x = `${w.source}:${w.sourcePort}`;
+  const y = `${w.target}:${w.targetPort}`;
+  return x < y ? `${x}|${y}` : `${y}|${x}`;
+}
+
+/** Ids of the wires of `here` whose two ends are not joined by a wire in `there`. */
+export function wiresOnlyIn(here: DesignDocument, there: DesignDocument): string[] {
+  const keys = new Set(there.wires.map(wireKey));
+  return here.wires.filter((w) => !keys.has(wireKey(w))).map((w) => w.id);
+}
+
 /**
  * Diff the two documents and solve both (each with the engine's wall-clock budget; a side that
  * does not compile or solve carries its reason). `relation` only words the header.
@@ -68,8 +83,8 @@ export function buildComparison(a: CompareSideInput, b: CompareSideInput, relati
   const h = highlights(diff);
   return {
     relation,
-    a: { ...a, results: ra, highlight: h.a },
-    b: { ...b, results: rb, highlight: h.b },
+    a: { ...a, results: ra, highlight: h.a, wiresOnlyHere: wiresOnlyIn(a.document, b.document) },
+    b: { ...b, results: rb, highlight: h.b, wiresOnlyHere: wiresOnlyIn(b.document, a.document) },
     diff,
     metrics: diffResults(ra, rb),
   };

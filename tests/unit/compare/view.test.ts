@@ -34,6 +34,10 @@ describe('compare page model', () => {
       ['added', grown.added[0]],
     ]);
     expect(view.a.results).toEqual(resultsOf(a));
+    // The wires each drawing marks are the ones the diff counts.
+    expect(view.a.wiresOnlyHere).toHaveLength(view.diff.wires.removed);
+    expect(view.b.wiresOnlyHere).toHaveLength(view.diff.wires.added);
+    expect(view.b.wiresOnlyHere.every((id) => b.wires.some((w) => w.id === id))).toBe(true);
     const out = view.metrics.find((m) => m.metric === 'outputDc');
     // One more stage: about 2Vp more output (REFERENCES §1.1, V0 = 2nVp).
     expect((out?.delta ?? 0) / 2000).toBeGreaterThan(0.95);
@@ -41,7 +45,8 @@ describe('compare page model', () => {
   });
 
   it('words a fork comparison with both titles', () => {
-    expect(comparisonTitle({ relation: 'fork-of-a', a: { ...side(a, 5), results: { ok: false, reason: '' }, highlight: {} }, b: { ...side(b, 2, 'x', 'Bench supply (fork)'), results: { ok: false, reason: '' }, highlight: {} } })).toBe(
+    const none = { results: { ok: false as const, reason: '' }, highlight: {}, wiresOnlyHere: [] };
+    expect(comparisonTitle({ relation: 'fork-of-a', a: { ...side(a, 5), ...none }, b: { ...side(b, 2, 'x', 'Bench supply (fork)'), ...none } })).toBe(
       'Bench supply r5 → Bench supply (fork) r2',
     );
   });
