@@ -25,7 +25,7 @@ export function RevisionPickers({ a, b, offerId }: { a: PickerSide; b: PickerSid
   const bDesign = b.designId !== a.designId ? b.designId : null;
   const go = (next: { a: number; b: number }) => router.push(compareHref(a.designId, { ...next, bDesign, offer: offerId }));
   return (
-    <form method="get" action={`/designs/${encodeURIComponent(a.designId)}/compare`} className="flex flex-wrap items-end gap-3" data-testid="compare-pickers">
+    <form key={`${a.designId}:${a.revision}:${b.designId}:${b.revision}`} method="get" action={`/designs/${encodeURIComponent(a.designId)}/compare`} className="flex flex-wrap items-end gap-3" data-testid="compare-pickers">
       {bDesign ? <input type="hidden" name="bDesign" value={bDesign} /> : null}
       {offerId ? <input type="hidden" name="offer" value={offerId} /> : null}
       <label className="flex flex-col gap-1 text-xs text-ink-200">
