@@ -14,6 +14,8 @@ import { commentsStore, useComments } from './comments-store';
 import { useRevisionComments } from './queries';
 
 const NO_PORTS: Record<string, string> = {};
+/** Pointer travel (px) past which a press is a drag, not a pick. */
+const DRAG_PX = 5;
 
 /** Whether the comments list attached this design. */
 function useAttached(designId: string | undefined): boolean {
@@ -88,8 +90,30 @@ function usePublishNames(attached: boolean, snapshot: EngineSnapshot, document: 
   }, [attached, nodeLabels, blockSig]);
 }
 
+/** Slack (px) around a part symbol's box that still counts as a click on it. */
+const PART_SLACK_PX = 4;
+
+/**
+ * The part symbol a click inside a block means: the one hit, else the smallest whose box (with a
+ * little slack) holds the point, since a capacitor's middle is the gap between its plates.
+ */
+function partAt(node: Element, el: Element, at: { x: number; y: number } | null): string | undefined {
+  const hit = el.closest('[data-testid^="sym-"]');
+  if (hit && node.contains(hit)) return hit.getAttribute('data-testid')?.slice(4);
+  if (!at) return undefined;
+  let best: { part: string; area: number } | null = null;
+  for (const sym of node.querySelectorAll('[data-testid^="sym-"]')) {
+    const r = sym.getBoundingClientRect();
+    if (at.x < r.left - PART_SLACK_PX || at.x > r.right + PART_SLACK_PX || at.y < r.top - PART_SLACK_PX || at.y > r.bottom + PART_SLACK_PX) continue;
+    const area = r.width * r.height;
+    const part = sym.getAttribute('data-testid')?.slice(4);
+    if (part && (!best || area < best.area)) best = { part, area };
+  }
+  return best?.part;
+}
+
 /** What in the canvas DOM an event landed on, as a pick target. */
-function pickTarget(el: Element, document: DesignDocument): PickTarget | null {
+function pickTarget(el: Element, document: DesignDocument, at: { x: number; y: number } | null = null): PickTarget | null {
   const handle = el.closest('.react-flow__handle');
   if (handle) {
     const blockId = handle.getAttribute('data-nodeid');
@@ -104,8 +128,7 @@ function pickTarget(el: Element, document: DesignDocument): PickTarget | null {
   const node = el.closest('.react-flow__node');
   const blockId = node?.getAttribute('data-id');
   if (!node || !blockId) return null;
-  const sym = el.closest('[data-testid^="sym-"]');
-  const part = sym && node.contains(sym) ? sym.getAttribute('data-testid')?.slice(4) : undefined;
+  const part = partAt(node, el, at);
   return { kind: 'block', blockId, ...(part ? { part } : {}) };
 }
 
@@ -126,9 +149,15 @@ export function useCommentPick(ref: RefObject<HTMLElement | null>, designId: str
   useEffect(() => {
     const el = ref.current;
     if (!el || !active) return;
-    const targetOf = (e: Event) => (e.target instanceof Element && !e.target.closest('[data-testid="comment-pin"]') ? pickTarget(e.target, live.current.document) : null);
+    const targetOf = (e: Event) =>
+      e.target instanceof Element && !e.target.closest('[data-testid="comment-pin"]')
+        ? pickTarget(e.target, live.current.document, e instanceof MouseEvent ? { x: e.clientX, y: e.clientY } : null)
+        : null;
+    // A press that moves before it lifts is a drag, not a pick (the browser still sends a click).
+    let down: { x: number; y: number } | null = null;
     const swallow = (e: Event) => {
       if (!targetOf(e)) return;
+      if (e instanceof PointerEvent) down = { x: e.clientX, y: e.clientY };
       e.stopPropagation();
       e.preventDefault();
     };
@@ -142,7 +171,9 @@ export function useCommentPick(ref: RefObject<HTMLElement | null>, designId: str
       if (!target) return;
       e.stopPropagation();
       e.preventDefault();
-      choose(target);
+      const moved = down !== null && e instanceof MouseEvent && Math.hypot(e.clientX - down.x, e.clientY - down.y) > DRAG_PX;
+      down = null;
+      if (!moved) choose(target);
     };
     const onKey = (e: KeyboardEvent) => {
       if (e.key === 'Escape') {

@@ -381,7 +381,7 @@ export function CommentsPanel({ designId, teamId, revision, canComment, focusCom
         ) : null}
         {groups.map((g) => (
           <section key={g.key} aria-label={anchorLabel(g.anchor, names)} data-testid="comment-group" data-anchor={g.key} className="space-y-1.5">
-            <h3 className="text-xs font-semibold uppercase tracking-wide text-ink-400">{anchorLabel(g.anchor.kind === 'part' ? { kind: 'part', blockId: g.anchor.blockId } : g.anchor, names)}</h3>
+            <h3 className="text-xs font-semibold text-ink-400">{anchorLabel(g.anchor.kind === 'part' ? { kind: 'part', blockId: g.anchor.blockId } : g.anchor, names)}</h3>
             <ul className="space-y-2">
               {g.threads.map((t) => (
                 <Thread key={t.id} thread={t} n={numbers.get(t.id) ?? 0} designId={designId} names={names} people={people} mentionNames={mentionNames} canComment={canComment} selected={selected === t.id} />
