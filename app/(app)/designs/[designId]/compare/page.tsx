@@ -1,6 +1,7 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
 import { CompareLayout } from '@/components/compare/compare-view';
+import { OfferActions } from '@/components/designs/offer-actions';
 import { AppError } from '@/lib/errors';
 import { requireUser } from '../../../require-user';
 import { loadComparison, type CompareQuery } from './load';
@@ -31,5 +32,6 @@ export default async function ComparePage({ params, searchParams }: { params: Pr
     if (e instanceof AppError && e.code === 'not_found') notFound();
     throw e;
   }
-  return <CompareLayout view={view} offerId={query.offer ?? null} />;
+  const offerActions = query.offer ? <OfferActions offerId={query.offer} parentDesignId={view.a.designId} parentLatestRevision={view.a.revision} /> : undefined;
+  return <CompareLayout view={view} offerId={query.offer ?? null} offerActions={offerActions} />;
 }
