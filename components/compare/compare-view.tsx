@@ -269,7 +269,7 @@ export function OfferActionsSlot({ offerId, children }: { offerId: string; child
       {children ?? (
         <p className="text-sm text-copper-100">
           This comparison is for a fork offered back to its parent: its changes become a new revision of the parent only when the parent’s owner accepts
-          them. Accepting records a colleague’s review of the drawing, not that the supply is safe.
+          them. Accepting adds a revision; it is not a review or an approval, and it does not certify that the supply is safe.
         </p>
       )}
     </div>
