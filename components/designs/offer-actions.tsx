@@ -143,7 +143,10 @@ export function OfferActions({ offerId, parentDesignId, parentLatestRevision }: 
       {offer.state === 'declined' && offer.decisionNote ? <p className="text-ink-400">&ldquo;{offer.decisionNote}&rdquo;</p> : null}
       {offer.state === 'open' && offer.canDecide && !declining ? (
         <>
-          <p className="text-ink-400">Accepting stores the fork&rsquo;s document as a new revision on top of r{parentLatestRevision}, the revision compared here.</p>
+          <p className="text-ink-400">
+            Accepting stores the fork&rsquo;s document as a new revision on top of r{parentLatestRevision}, the revision compared here. It is not a
+            review or an approval, and it does not certify that the supply is safe.
+          </p>
           <div className="flex flex-wrap gap-2">
             <Button
               data-testid="accept-offer"
