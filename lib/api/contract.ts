@@ -3,7 +3,7 @@
  * bodies are zod schemas (every boundary is validated); responses are plain DTO types.
  * Errors always have the shape `{ error: { code, message, field? } }` (see lib/errors.ts).
  */
-import { z } from 'zod';
+import { z } from '../circuit/zod';
 import { designDocumentSchema } from '@/lib/circuit/document/schema';
 
 export const ROLES = ['owner', 'designer', 'reviewer', 'viewer'] as const;

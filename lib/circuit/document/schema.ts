@@ -17,7 +17,7 @@
  * (cathode). Negative polarity reverses both diodes. A full-wave stage adds a second pumping C
  * from x2In to x2Out, diode C from yIn to x2Out and diode D from x2Out to yOut.
  */
-import { z } from 'zod';
+import { z } from '../zod';
 
 export const DOCUMENT_SCHEMA_VERSION = 1;
 

@@ -7,7 +7,7 @@
  * warm-up). The solver is synchronous, so a newer document is not queued behind a running solve:
  * the editor terminates the solve worker and starts a fresh one.
  */
-import { z } from 'zod';
+import { z } from '../../circuit/zod';
 import { designDocumentSchema } from '@/lib/circuit';
 import type { CompileView, EstimateView, SolveView } from '../types';
 
