@@ -8,6 +8,7 @@ export const ERROR_STATUS = {
   bad_json: 400,
   unauthenticated: 401,
   forbidden: 403,
+  cross_site: 403,
   not_found: 404,
   conflict: 409,
   last_owner: 409,

@@ -32,6 +32,21 @@ describe('route wrapper', () => {
     expect(form.body).toEqual({ error: { code: 'unsupported_media_type', message: expect.any(String) } });
   });
 
+  it('refuses a state-changing call from another site (Origin or Sec-Fetch-Site) before reading anything; reads and same-site calls pass', async () => {
+    const act = vi.fn(async () => ({ ok: true }));
+    const write = route({}, act);
+    const as = f.users.owner;
+    for (const headers of [{ origin: 'https://evil.example' }, { 'sec-fetch-site': 'cross-site' }, { origin: 'null' }]) {
+      const res = await call(write, '/x', { method: 'POST', headers, as });
+      expect({ headers, status: res.status, body: res.body }).toEqual({ headers, status: 403, body: { error: { code: 'cross_site', message: expect.any(String) } } });
+    }
+    expect(act).not.toHaveBeenCalled();
+    expect((await call(write, '/x', { method: 'POST', headers: { origin: 'http://127.0.0.1:3000', 'sec-fetch-site': 'same-origin' }, as })).status).toBe(200);
+    expect((await call(write, '/x', { method: 'DELETE', as })).status).toBe(200);
+    // a cross-site read is left to the session and CORS (the browser will not show it to the other site)
+    expect((await call(write, '/x', { method: 'GET', headers: { origin: 'https://evil.example' }, as })).status).toBe(200);
+  });
+
   it('an empty body is validated as {} (422 naming the field)', async () => {
     const res = await call(echo, '/x', { method: 'POST' });
     expect(res.status).toBe(422);
