@@ -36,7 +36,8 @@ describe('route wrapper', () => {
     const act = vi.fn(async () => ({ ok: true }));
     const write = route({}, act);
     const as = f.users.owner;
-    for (const headers of [{ origin: 'https://evil.example' }, { 'sec-fetch-site': 'cross-site' }, { origin: 'null' }]) {
+    const crossSite: Record<string, string>[] = [{ origin: 'https://evil.example' }, { 'sec-fetch-site': 'cross-site' }, { origin: 'null' }];
+    for (const headers of crossSite) {
       const res = await call(write, '/x', { method: 'POST', headers, as });
       expect({ headers, status: res.status, body: res.body }).toEqual({ headers, status: 403, body: { error: { code: 'cross_site', message: expect.any(String) } } });
     }
