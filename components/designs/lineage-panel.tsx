@@ -1,8 +1,9 @@
 'use client';
 
 import Link from 'next/link';
-import { useId, useState, type FormEvent } from 'react';
+import { useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
+import { TextAreaField } from '@/components/ui/field';
 import { Badge, Notice, Panel, Skeleton } from '@/components/ui/notice';
 import type { DesignDetailDto, OfferDto } from '@/lib/api/contract';
 import { fieldError, formError } from '@/lib/client/api';
@@ -17,7 +18,6 @@ function stateTone(state: OfferDto['state']) {
 function OfferBackForm({ design, onDone }: { design: DesignDetailDto; onDone: () => void }) {
   const offer = useOfferBack(design.id);
   const [message, setMessage] = useState('');
-  const id = useId();
   const messageError = fieldError(offer.error, 'message');
   const top = formError(offer.error, ['message']);
   function onSubmit(e: FormEvent) {
@@ -31,26 +31,21 @@ function OfferBackForm({ design, onDone }: { design: DesignDetailDto; onDone: ()
         decides; nothing changes there until they accept.
       </p>
       {top ? <Notice tone="error">{top}</Notice> : null}
-      <label htmlFor={id} className="block text-sm font-medium text-ink-200">
-        Message <span className="font-normal text-ink-400">(optional)</span>
-      </label>
-      <textarea
-        id={id}
+      <TextAreaField
+        label={
+          <>
+            Message <span className="font-normal text-ink-400">(optional)</span>
+          </>
+        }
+        error={messageError}
         data-testid="offer-message"
         rows={2}
         maxLength={500}
         value={message}
         onChange={(e) => setMessage(e.target.value)}
         disabled={offer.isPending}
-        aria-invalid={messageError ? true : undefined}
-        className="block w-full rounded-md border border-ink-600 bg-ink-900 px-2.5 py-1.5 text-sm text-ink-50 hover:border-ink-400"
         placeholder="What did you change, and why?"
       />
-      {messageError ? (
-        <p className="text-xs text-hazard-100" role="alert">
-          {messageError}
-        </p>
-      ) : null}
       <div className="flex gap-2">
         <Button type="submit" data-testid="send-offer" pending={offer.isPending} pendingLabel="Offering…">
           Offer r{design.latestRevision}

@@ -1,9 +1,10 @@
 'use client';
 
 import Link from 'next/link';
-import { useId, useState, type FormEvent } from 'react';
+import { useState, type FormEvent } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Button } from '@/components/ui/button';
+import { TextAreaField } from '@/components/ui/field';
 import { Badge, Notice, Skeleton } from '@/components/ui/notice';
 import type { OfferDto } from '@/lib/api/contract';
 import { ApiError, api, fieldError, formError } from '@/lib/client/api';
@@ -63,7 +64,6 @@ function useDecideOffer(offerId: string) {
 function DeclineForm({ offerId, onDone }: { offerId: string; onDone: () => void }) {
   const decide = useDecideOffer(offerId);
   const [note, setNote] = useState('');
-  const id = useId();
   const noteError = fieldError(decide.error, 'note');
   const top = formError(decide.error, ['note']);
   function onSubmit(e: FormEvent) {
@@ -73,25 +73,20 @@ function DeclineForm({ offerId, onDone }: { offerId: string; onDone: () => void 
   return (
     <form onSubmit={onSubmit} className="space-y-2" noValidate data-testid="offer-decline-form">
       {top ? <Notice tone="error">{top}</Notice> : null}
-      <label htmlFor={id} className="block text-sm font-medium text-ink-200">
-        Why not <span className="font-normal text-ink-400">(optional, the author sees it)</span>
-      </label>
-      <textarea
-        id={id}
+      <TextAreaField
+        label={
+          <>
+            Why not <span className="font-normal text-ink-400">(optional, the author sees it)</span>
+          </>
+        }
+        error={noteError}
         data-testid="offer-decline-note"
         rows={2}
         maxLength={2000}
         value={note}
         onChange={(e) => setNote(e.target.value)}
         disabled={decide.isPending}
-        aria-invalid={noteError ? true : undefined}
-        className="block w-full rounded-md border border-ink-600 bg-ink-900 px-2.5 py-1.5 text-sm text-ink-50 hover:border-ink-400"
       />
-      {noteError ? (
-        <p className="text-xs text-hazard-100" role="alert">
-          {noteError}
-        </p>
-      ) : null}
       <div className="flex gap-2">
         <Button type="submit" variant="danger" data-testid="submit-offer-decline" pending={decide.isPending} pendingLabel="Declining…">
           Decline the offer

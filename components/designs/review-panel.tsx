@@ -4,6 +4,7 @@ import Link from 'next/link';
 import { useEffect, useId, useRef, useState, type FormEvent } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Button } from '@/components/ui/button';
+import { TextAreaField } from '@/components/ui/field';
 import { Badge, Notice, Panel, Skeleton } from '@/components/ui/notice';
 import type { DesignDetailDto, DesignStatus, ReviewDto, Role } from '@/lib/api/contract';
 import { api, fieldError, formError } from '@/lib/client/api';
@@ -169,28 +170,21 @@ function RequestForm({ design, onDone }: { design: DesignDetailDto; onDone: () =
           </p>
         ) : null}
       </fieldset>
-      <div>
-        <label htmlFor={noteId} className="mb-1 block text-sm font-medium text-ink-200">
-          Note for the reviewers <span className="font-normal text-ink-400">(optional)</span>
-        </label>
-        <textarea
-          id={noteId}
-          data-testid="review-note"
-          rows={3}
-          maxLength={2000}
-          value={note}
-          onChange={(e) => setNote(e.target.value)}
-          disabled={request.isPending}
-          aria-invalid={noteError ? true : undefined}
-          className="block w-full rounded-md border border-ink-600 bg-ink-900 px-2.5 py-1.5 text-sm text-ink-50 placeholder:text-ink-400 hover:border-ink-400"
-          placeholder="What should they look at?"
-        />
-        {noteError ? (
-          <p className="mt-1 text-xs text-hazard-100" role="alert">
-            {noteError}
-          </p>
-        ) : null}
-      </div>
+      <TextAreaField
+        label={
+          <>
+            Note for the reviewers <span className="font-normal text-ink-400">(optional)</span>
+          </>
+        }
+        error={noteError}
+        data-testid="review-note"
+        rows={3}
+        maxLength={2000}
+        value={note}
+        onChange={(e) => setNote(e.target.value)}
+        disabled={request.isPending}
+        placeholder="What should they look at?"
+      />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" data-testid="send-review-request" pending={request.isPending} pendingLabel="Sending…" disabled={picked.length === 0 || isPrivate}>
           Send the request
@@ -207,7 +201,6 @@ function DecisionForm({ design, review, decision, onDone }: { design: DesignDeta
   const decide = useDecideReview(design, review.id);
   const [note, setNote] = useState('');
   const [missing, setMissing] = useState(false);
-  const noteId = useId();
   const approve = decision === 'approve';
   const noteError = missing ? 'Say what needs to change.' : fieldError(decide.error, 'note');
   const top = formError(decide.error, ['note']);
@@ -230,35 +223,25 @@ function DecisionForm({ design, review, decision, onDone }: { design: DesignDeta
       </p>
       {approve ? <p className="text-xs text-copper-100">{APPROVAL_CAUTION}</p> : null}
       {top ? <Notice tone="error">{top}</Notice> : null}
-      <div>
-        <label htmlFor={noteId} className="mb-1 block text-sm font-medium text-ink-200">
-          {approve ? (
+      <TextAreaField
+        label={
+          approve ? (
             <>
               Note <span className="font-normal text-ink-400">(optional)</span>
             </>
           ) : (
             'What needs to change'
-          )}
-        </label>
-        <textarea
-          id={noteId}
-          data-testid="decision-note"
-          rows={3}
-          maxLength={2000}
-          value={note}
-          required={!approve}
-          onChange={(e) => setNote(e.target.value)}
-          disabled={decide.isPending}
-          aria-invalid={noteError ? true : undefined}
-          aria-describedby={noteError ? `${noteId}-err` : undefined}
-          className={`block w-full rounded-md border bg-ink-900 px-2.5 py-1.5 text-sm text-ink-50 placeholder:text-ink-400 ${noteError ? 'border-hazard-500' : 'border-ink-600 hover:border-ink-400'}`}
-        />
-        {noteError ? (
-          <p id={`${noteId}-err`} className="mt-1 text-xs text-hazard-100" role="alert">
-            {noteError}
-          </p>
-        ) : null}
-      </div>
+          )
+        }
+        error={noteError}
+        data-testid="decision-note"
+        rows={3}
+        maxLength={2000}
+        value={note}
+        required={!approve}
+        onChange={(e) => setNote(e.target.value)}
+        disabled={decide.isPending}
+      />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" data-testid="submit-decision" pending={decide.isPending} pendingLabel="Sending…">
           {approve ? `Approve r${review.revision}` : 'Send the request for changes'}

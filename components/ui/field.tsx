@@ -1,4 +1,4 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from 'react';
+import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
 
 const control =
   'block w-full rounded-md border bg-ink-900 px-2.5 py-1.5 text-sm text-ink-50 placeholder:text-ink-400 disabled:opacity-60';
@@ -29,6 +29,37 @@ export function TextField({ label, error, hint, className = '', ...input }: Fiel
         aria-invalid={error ? true : undefined}
         aria-describedby={[hintId, errId].filter(Boolean).join(' ') || undefined}
         {...input}
+      />
+      {hint ? (
+        <p id={hintId} className="mt-1 text-xs text-ink-400">
+          {hint}
+        </p>
+      ) : null}
+      {error ? (
+        <p id={errId} className="mt-1 text-xs text-hazard-100" role="alert">
+          {error}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+/** A labelled multi-line text box with its hint and the server's field error. */
+export function TextAreaField({ label, error, hint, className = '', ...area }: FieldShell & TextareaHTMLAttributes<HTMLTextAreaElement>) {
+  const id = useId();
+  const hintId = hint ? `${id}-hint` : undefined;
+  const errId = error ? `${id}-err` : undefined;
+  return (
+    <div className={className}>
+      <label htmlFor={id} className="mb-1 block text-sm font-medium text-ink-200">
+        {label}
+      </label>
+      <textarea
+        id={id}
+        className={`${control} ${borderFor(error)}`}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={[hintId, errId].filter(Boolean).join(' ') || undefined}
+        {...area}
       />
       {hint ? (
         <p id={hintId} className="mt-1 text-xs text-ink-400">
