@@ -57,6 +57,11 @@ const smtp = new SMTPServer({
   },
 });
 
+// A client that drops its connection mid-conversation (a test aborting a send, a process exiting)
+// surfaces as an 'error' event on the server; unhandled, it would kill the catcher for every later
+// test. Log it and keep serving.
+smtp.on('error', (err: Error) => console.error(`[fakes] SMTP connection error (ignored): ${err.message}`));
+
 function escapeHtml(s: string): string {
   return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] ?? c);
 }
