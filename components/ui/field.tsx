@@ -13,8 +13,16 @@ interface FieldShell {
   hint?: ReactNode;
 }
 
-/** A labelled text input with its hint and the server's field error (linked by aria-describedby). */
-export function TextField({ label, error, hint, className = '', ...input }: FieldShell & InputHTMLAttributes<HTMLInputElement>) {
+/** What a field's control needs from its frame: the label's target, styling and the hint/error links. */
+interface ControlProps {
+  id: string;
+  className: string;
+  'aria-invalid'?: true;
+  'aria-describedby'?: string;
+}
+
+/** Label above, hint and the server's field error below, linked to the control by aria-describedby. */
+function FieldFrame({ label, error, hint, className, control: render }: FieldShell & { className: string; control: (props: ControlProps) => ReactNode }) {
   const id = useId();
   const hintId = hint ? `${id}-hint` : undefined;
   const errId = error ? `${id}-err` : undefined;
@@ -23,13 +31,12 @@ export function TextField({ label, error, hint, className = '', ...input }: Fiel
       <label htmlFor={id} className="mb-1 block text-sm font-medium text-ink-200">
         {label}
       </label>
-      <input
-        id={id}
-        className={`${control} ${borderFor(error)}`}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={[hintId, errId].filter(Boolean).join(' ') || undefined}
-        {...input}
-      />
+      {render({
+        id,
+        className: `${control} ${borderFor(error)}`,
+        'aria-invalid': error ? true : undefined,
+        'aria-describedby': [hintId, errId].filter(Boolean).join(' ') || undefined,
+      })}
       {hint ? (
         <p id={hintId} className="mt-1 text-xs text-ink-400">
           {hint}
@@ -42,68 +49,31 @@ export function TextField({ label, error, hint, className = '', ...input }: Fiel
       ) : null}
     </div>
   );
+}
+
+/** A labelled text input with its hint and the server's field error (linked by aria-describedby). */
+export function TextField({ label, error, hint, className = '', ...input }: FieldShell & InputHTMLAttributes<HTMLInputElement>) {
+  return <FieldFrame label={label} error={error} hint={hint} className={className} control={(p) => <input {...p} {...input} />} />;
 }
 
 /** A labelled multi-line text box with its hint and the server's field error. */
 export function TextAreaField({ label, error, hint, className = '', ...area }: FieldShell & TextareaHTMLAttributes<HTMLTextAreaElement>) {
-  const id = useId();
-  const hintId = hint ? `${id}-hint` : undefined;
-  const errId = error ? `${id}-err` : undefined;
-  return (
-    <div className={className}>
-      <label htmlFor={id} className="mb-1 block text-sm font-medium text-ink-200">
-        {label}
-      </label>
-      <textarea
-        id={id}
-        className={`${control} ${borderFor(error)}`}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={[hintId, errId].filter(Boolean).join(' ') || undefined}
-        {...area}
-      />
-      {hint ? (
-        <p id={hintId} className="mt-1 text-xs text-ink-400">
-          {hint}
-        </p>
-      ) : null}
-      {error ? (
-        <p id={errId} className="mt-1 text-xs text-hazard-100" role="alert">
-          {error}
-        </p>
-      ) : null}
-    </div>
-  );
+  return <FieldFrame label={label} error={error} hint={hint} className={className} control={(p) => <textarea {...p} {...area} />} />;
 }
 
 /** A labelled select with the server's field error. */
 export function SelectField({ label, error, hint, className = '', children, ...select }: FieldShell & SelectHTMLAttributes<HTMLSelectElement>) {
-  const id = useId();
-  const errId = error ? `${id}-err` : undefined;
-  const hintId = hint ? `${id}-hint` : undefined;
   return (
-    <div className={className}>
-      <label htmlFor={id} className="mb-1 block text-sm font-medium text-ink-200">
-        {label}
-      </label>
-      <select
-        id={id}
-        className={`${control} ${borderFor(error)}`}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={[hintId, errId].filter(Boolean).join(' ') || undefined}
-        {...select}
-      >
-        {children}
-      </select>
-      {hint ? (
-        <p id={hintId} className="mt-1 text-xs text-ink-400">
-          {hint}
-        </p>
-      ) : null}
-      {error ? (
-        <p id={errId} className="mt-1 text-xs text-hazard-100" role="alert">
-          {error}
-        </p>
-      ) : null}
-    </div>
+    <FieldFrame
+      label={label}
+      error={error}
+      hint={hint}
+      className={className}
+      control={(p) => (
+        <select {...p} {...select}>
+          {children}
+        </select>
+      )}
+    />
   );
 }
