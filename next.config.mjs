@@ -21,7 +21,7 @@ const csp = [
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
-  serverExternalPackages: ['sequelize', 'pg', 'pg-hstore'],
+  serverExternalPackages: ['sequelize', 'pg', 'pg-hstore', 'pg-boss', 'pdfkit'],
   poweredByHeader: false,
   experimental: { turbopackFileSystemCacheForBuild: false },
   async headers() {

@@ -18,6 +18,7 @@ apt_pkgs=()
 if [ "$want_test" = 1 ]; then
   [ -x /usr/bin/chromium ] || apt_pkgs+=(chromium)
   command -v ngspice >/dev/null 2>&1 || apt_pkgs+=(ngspice)
+  command -v pdftotext >/dev/null 2>&1 || apt_pkgs+=(poppler-utils)
 fi
 if [ ${#apt_pkgs[@]} -gt 0 ]; then
   echo "[deps] apt-get install ${apt_pkgs[*]}"

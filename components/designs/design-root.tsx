@@ -232,6 +232,10 @@ export function DesignRoot({ designId }: { designId: string }) {
 
           <ReviewPanel design={d} userId={userId} role={role} focusReviewId={focusReviewId} />
 
+          {/* lane analyses: sweeps and tolerance spreads panel mounts here */}
+
+          {/* lane bench: bench-data panel mounts here */}
+
           <CommentsPanel designId={d.id} teamId={d.teamId} revision={selected} canComment={p.comment} focusCommentId={search.get('comment')} />
 
           <Panel title={<span>Stored revision r{selected} in brief</span>} testId="summary-panel">
@@ -244,6 +248,7 @@ export function DesignRoot({ designId }: { designId: string }) {
             <Revisions designId={designId} latest={d.latestRevision} selected={selected} onSelect={setChosen} />
           </Panel>
           <LineagePanel design={d} userId={userId} />
+          {/* lane exports: downloads panel (BOM, netlist, JSON, report) mounts here */}
         </div>
       </div>
     </div>

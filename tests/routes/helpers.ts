@@ -94,8 +94,10 @@ export async function sessionCookie(user: FixtureUser): Promise<string> {
 export interface CallOptions {
   method?: string;
   params?: Record<string, string>;
-  /** JSON-encoded unless a string (sent as is). */
+  /** JSON-encoded unless a string or FormData / Uint8Array (sent as is). */
   body?: unknown;
+  /** Content type for a string or byte body (default application/json). */
+  contentType?: string;
   as?: FixtureUser | null;
   headers?: Record<string, string>;
   query?: Record<string, string>;
@@ -108,7 +110,11 @@ export type AnyHandler = (req: NextRequest, ctx: { params: Promise<never> }) => 
 
 export interface CallResult<T = Record<string, unknown>> {
   status: number;
+  /** The parsed JSON answer ({} when the answer is empty or not JSON: see `raw`). */
   body: T;
+  headers: Headers;
+  /** The answer's bytes (CSV, PDF, …). */
+  raw: Uint8Array;
 }
 
 /** Call a route handler the way Next.js would and read its JSON answer. */
@@ -118,7 +124,13 @@ export async function call<T = Record<string, unknown>>(handler: AnyHandler, pat
   const headers = new Headers(o.headers);
   if (o.as) headers.set('cookie', await sessionCookie(o.as));
   let body: BodyInit | undefined;
-  if (o.body !== undefined) {
+  if (o.body instanceof FormData) {
+    body = o.body;
+  } else if (o.body instanceof Uint8Array) {
+    if (!headers.has('content-type')) headers.set('content-type', o.contentType ?? 'application/octet-stream');
+    body = o.body as BodyInit;
+  } else if (o.body !== undefined) {
+    if (o.contentType && !headers.has('content-type')) headers.set('content-type', o.contentType);
     const text = typeof o.body === 'string' ? o.body : JSON.stringify(o.body);
     if (!headers.has('content-type')) headers.set('content-type', 'application/json');
     if (o.stream) {
@@ -135,8 +147,10 @@ export async function call<T = Record<string, unknown>>(handler: AnyHandler, pat
   if (o.stream) init.duplex = 'half';
   const req = new NextRequest(url, init as ConstructorParameters<typeof NextRequest>[1]);
   const res = await handler(req, { params: Promise.resolve(o.params ?? {}) as Promise<never> });
-  const text = await res.text();
-  return { status: res.status, body: (text ? JSON.parse(text) : {}) as T };
+  const raw = new Uint8Array(await res.arrayBuffer());
+  const isJson = (res.headers.get('content-type') ?? 'application/json').includes('json');
+  const text = isJson ? new TextDecoder().decode(raw) : '';
+  return { status: res.status, body: (text ? JSON.parse(text) : {}) as T, headers: res.headers, raw };
 }
 
 /** A valid 3-stage half-wave document (defaults applied). */

@@ -36,34 +36,21 @@ import * as offer from '@/app/api/offers/[offerId]/route';
 import * as offerDecision from '@/app/api/offers/[offerId]/decision/route';
 import { requestReview } from '@/lib/data/reviews';
 import { createOffer } from '@/lib/data/offers';
-import { createDesign, forkDesign } from '@/lib/data/designs';
+import { forkDesign } from '@/lib/data/designs';
 import { hashInvitationToken } from '@/lib/data/invitations';
 import { db } from '@/lib/db';
 import { addMember, call, freshEmail, makeUser, PASSWORD, sampleDocument, setupFixtures, teardown, type AnyHandler, type Fixtures, type Who } from './helpers';
 
-type Caller = Who | 'signedOut';
-const CALLERS: Caller[] = ['owner', 'designer', 'reviewer', 'viewer', 'outsider', 'signedOut'];
-
-interface Prepared {
-  path: string;
-  params: Record<string, string>;
-  body?: unknown;
-}
-
-interface Case {
-  name: string;
-  handler: AnyHandler;
-  method: string;
-  /** Expected status for owner, designer, reviewer, viewer, outsider, signed out. */
-  expect: [number, number, number, number, number, number];
-  prepare: (f: Fixtures) => Promise<Prepared>;
-}
+import { ALL_OK, CALLERS, MEMBERS_READ, OWNER_ONLY, WRITERS, newDesignFor, type Case } from './permissions/shared';
+import { partsCases } from './permissions/parts';
+import { exportsCases } from './permissions/exports';
+import { benchCases } from './permissions/bench';
+import { analysesCases } from './permissions/analyses';
 
 let f: Fixtures;
 
-async function newDesign(author: Who = 'designer', visibility: 'team' | 'private' = 'team'): Promise<string> {
-  const { design: d } = await createDesign(f.users[author].id, f.teamId, { title: `Case design ${Math.random().toString(36).slice(2, 7)}`, visibility, document: sampleDocument() });
-  return d.id;
+function newDesign(author: Who = 'designer', visibility: 'team' | 'private' = 'team'): Promise<string> {
+  return newDesignFor(f, author, visibility);
 }
 
 /** A designer's design with an open review request naming the reviewer. */
@@ -102,12 +89,7 @@ async function newMember(): Promise<string> {
   return u.id;
 }
 
-const ALL_OK = (s: number): Case['expect'] => [s, s, s, s, s, 401];
-const MEMBERS_READ: Case['expect'] = [200, 200, 200, 200, 404, 401];
-const OWNER_ONLY = (s: number): Case['expect'] => [s, 403, 403, 403, 404, 401];
-const WRITERS = (s: number): Case['expect'] => [s, s, 403, 403, 404, 401];
-
-const cases: Case[] = [
+const coreCases: Case[] = [
   { name: 'GET /api/health', handler: health.GET as AnyHandler, method: 'GET', expect: [200, 200, 200, 200, 200, 200], prepare: async () => ({ path: '/api/health', params: {} }) },
   { name: 'GET /api/me', handler: me.GET, method: 'GET', expect: ALL_OK(200), prepare: async () => ({ path: '/api/me', params: {} }) },
   { name: 'GET /api/teams', handler: teams.GET, method: 'GET', expect: ALL_OK(200), prepare: async () => ({ path: '/api/teams', params: {} }) },
@@ -413,6 +395,8 @@ const cases: Case[] = [
   },
 ];
 
+const cases: Case[] = [...coreCases, ...partsCases, ...exportsCases, ...benchCases, ...analysesCases];
+
 beforeAll(async () => {
   f = await setupFixtures();
 });
@@ -422,7 +406,7 @@ describe('every route × every role', () => {
   const rows = cases.flatMap((c) => CALLERS.map((who, i) => ({ c, who, expected: c.expect[i] })));
   it.each(rows.map((r) => [r.c.name, r.who, r.expected, r] as const))('%s as %s → %i', async (_n, who, expected, r) => {
     const p = await r.c.prepare(f);
-    const res = await call(r.c.handler, p.path, { method: r.c.method, params: p.params, body: p.body, as: who === 'signedOut' ? null : f.users[who] });
+    const res = await call(r.c.handler, p.path, { method: r.c.method, params: p.params, body: p.body, contentType: p.contentType, as: who === 'signedOut' ? null : f.users[who] });
     if (res.status !== expected) throw new Error(`expected ${expected}, got ${res.status}: ${JSON.stringify(res.body)}`);
     if (expected >= 400) {
       const err = (res.body as { error?: { code?: string; message?: string } }).error;
