@@ -68,12 +68,12 @@ export function zodError(err: z.ZodError): AppError {
   return new AppError('invalid', message, field === undefined ? {} : { field });
 }
 
-/** Read the request body as UTF-8 text, refusing more than MAX_BODY_BYTES (413). */
-export async function readBodyText(req: Request, maxBytes = MAX_BODY_BYTES): Promise<string> {
+/** Read the request body as bytes, refusing more than `maxBytes` (413) even without a content-length. */
+export async function readBodyBytes(req: Request, maxBytes = MAX_BODY_BYTES): Promise<Uint8Array> {
   const declared = Number(req.headers.get('content-length') ?? '0');
   const tooLarge = () => new AppError('payload_too_large', `request body is larger than ${maxBytes} bytes`);
   if (declared > maxBytes) throw tooLarge();
-  if (!req.body) return '';
+  if (!req.body) return new Uint8Array();
   const reader = req.body.getReader();
   const chunks: Uint8Array[] = [];
   let total = 0;
@@ -93,6 +93,12 @@ export async function readBodyText(req: Request, maxBytes = MAX_BODY_BYTES): Pro
     bytes.set(c, at);
     at += c.byteLength;
   }
+  return bytes;
+}
+
+/** Read the request body as UTF-8 text, refusing more than MAX_BODY_BYTES (413). */
+export async function readBodyText(req: Request, maxBytes = MAX_BODY_BYTES): Promise<string> {
+  const bytes = await readBodyBytes(req, maxBytes);
   try {
     return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
   } catch {
