@@ -18,12 +18,16 @@ import { ForkOffer } from './fork-offer';
 // comments and activity
 import { Comment } from './comment';
 import { ActivityEvent, ActivityRecipient, NotificationSetting } from './activity';
+// audit log
+import { AuditEvent } from './audit-event';
 
 export { User, Account, Session, VerificationToken, SignInThrottle, Team, Membership, Invitation, Design, DesignRevision };
 // reviews and offers
 export { ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer };
 // comments and activity
 export { Comment, ActivityEvent, ActivityRecipient, NotificationSetting };
+// audit log
+export { AuditEvent };
 
 /** The model classes, initialised. */
 export interface Models {
@@ -47,6 +51,8 @@ export interface Models {
   ActivityEvent: typeof ActivityEvent;
   ActivityRecipient: typeof ActivityRecipient;
   NotificationSetting: typeof NotificationSetting;
+  // audit log
+  AuditEvent: typeof AuditEvent;
 }
 
 let boundTo: Sequelize | null = null;
@@ -59,6 +65,8 @@ export function initModels(sequelize: Sequelize): Models {
     ...{ ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer },
     // comments and activity
     ...{ Comment, ActivityEvent, ActivityRecipient, NotificationSetting },
+    // audit log
+    ...{ AuditEvent },
   };
   if (boundTo === sequelize) return models;
   boundTo = sequelize;

@@ -35,6 +35,7 @@ import { AppError, conflict, forbidden, notFound } from '../errors';
 import type { Approval, Design, DesignRevision } from '../../models';
 import { canWrite, loadCaller, requireMember, requireRole, WRITER_ROLES, type Caller } from './access';
 import { recordActivity } from './activity';
+import { recordAudit } from './audit';
 import { approvalDto, reviewDto, revisionSummaryDto, userDto } from './dto';
 import { summariseTopology } from './topology';
 
@@ -230,6 +231,7 @@ export async function createDesign(userId: string, teamId: string, input: Create
       { transaction },
     );
     const r = await insertRevision(d.id, 1, input.document, userId, input.message ?? 'First revision', transaction);
+    await recordAudit({ teamId, actorId: userId, action: 'design.created', targetType: 'design', targetId: d.id, summary: { title: d.title, visibility: d.visibility } }, transaction);
     return { designId: d.id, revision: r };
   });
   const design = await detailDto(caller, await loadReadable(caller, designId));
@@ -262,11 +264,20 @@ export async function updateDesign(userId: string, designId: string, input: Upda
   const editsContent = input.title !== undefined || input.description !== undefined;
   const willBeArchived = input.archived ?? d.archivedAt !== null;
   if (editsContent && willBeArchived) throw conflict('this design is archived; restore it before editing');
+  const before = { title: d.title, description: d.description, visibility: d.visibility, archived: d.archivedAt !== null };
   if (input.title !== undefined) d.title = input.title;
   if (input.description !== undefined) d.description = input.description;
   if (input.visibility !== undefined) d.visibility = input.visibility;
   if (input.archived !== undefined) d.archivedAt = input.archived ? (d.archivedAt ?? new Date()) : null;
-  await d.save();
+  await db().sequelize.transaction(async (transaction) => {
+    await d.save({ transaction });
+    // one audit row per kind of change that actually happened
+    const audit = (action: 'design.updated' | 'design.shared' | 'design.archived' | 'design.restored', summary: Record<string, string | boolean>) =>
+      recordAudit({ teamId: d.teamId, actorId: userId, action, targetType: 'design', targetId: d.id, summary: { title: d.title, ...summary } }, transaction);
+    if (d.title !== before.title || d.description !== before.description) await audit('design.updated', { previousTitle: before.title, descriptionChanged: d.description !== before.description });
+    if (d.visibility !== before.visibility) await audit('design.shared', { from: before.visibility, to: d.visibility });
+    if ((d.archivedAt !== null) !== before.archived) await audit(d.archivedAt ? 'design.archived' : 'design.restored', {});
+  });
   return detailDto(caller, await loadReadable(caller, designId));
 }
 
@@ -338,7 +349,11 @@ export async function saveRevision(userId: string, designId: string, input: Save
   const d = await loadReadable(caller, designId);
   requireRole(caller, d.teamId, WRITER_ROLES, 'design');
   if (d.archivedAt) throw conflict('this design is archived; restore it before saving');
-  const r = await db().sequelize.transaction((transaction) => appendRevision(designId, input.baseRevision, input.document, userId, input.message ?? '', transaction));
+  const r = await db().sequelize.transaction(async (transaction) => {
+    const saved = await appendRevision(designId, input.baseRevision, input.document, userId, input.message ?? '', transaction);
+    await recordAudit({ teamId: d.teamId, actorId: userId, action: 'revision.saved', targetType: 'revision', targetId: saved.id, summary: { designId, number: saved.number, baseRevision: input.baseRevision } }, transaction);
+    return saved;
+  });
   return revisionSummaryDto(r);
 }
 
@@ -374,6 +389,7 @@ export async function forkDesign(userId: string, designId: string, input: ForkIn
       { transaction },
     );
     await insertRevision(f.id, 1, source.document, userId, `Forked from ${parent.title} r${number}`.slice(0, 500), transaction);
+    await recordAudit({ teamId, actorId: userId, action: 'design.forked', targetType: 'design', targetId: f.id, summary: { title: f.title, fromDesignId: parent.id, fromRevision: number } }, transaction);
     // feed only (no mail): addressed to the parent's author when they can open the fork
     const actor = userDto(await models.User.findByPk(userId, { transaction })).name;
     const parentAuthor = await loadCaller(parent.authorId, transaction);

@@ -14,6 +14,7 @@ import { AppError, conflict, forbidden, notFound } from '../errors';
 import { invitationMessage, sendMail } from '../mail';
 import { loadCaller, requireRole } from './access';
 import { mutedAmong, recordActivity } from './activity';
+import { recordAudit } from './audit';
 import { invitationDto, userDto } from './dto';
 
 /** How long an invitation stays valid (ms): 7 days. */
@@ -55,6 +56,7 @@ export async function createInvitation(userId: string, teamId: string, email: st
       { teamId, email: address, role, tokenHash: hashInvitationToken(token), invitedById: userId, expiresAt: new Date(Date.now() + INVITATION_TTL_MS), acceptedAt: null, acceptedById: null },
       { transaction },
     );
+    await recordAudit({ teamId, actorId: userId, action: 'invitation.sent', targetType: 'invitation', targetId: created.id, summary: { email: address, role } }, transaction);
     // someone who already has an account also finds the invitation in their activity feed (shown
     // to them alone); the replaced invitation's event, whose link no longer works, goes
     if (existingUser) {
@@ -88,6 +90,9 @@ export async function createInvitation(userId: string, teamId: string, email: st
     } catch (e) {
       // an invitation nobody can receive is useless: take it back and report the failure
       await invitation.destroy();
+      await sequelize.transaction((transaction) =>
+        recordAudit({ teamId, actorId: userId, action: 'invitation.revoked', targetType: 'invitation', targetId: invitation.id, summary: { email: address, reason: 'the invitation mail could not be sent' } }, transaction),
+      );
       if (eventId) await models.ActivityEvent.destroy({ where: { id: eventId } });
       throw e;
     }
@@ -147,6 +152,7 @@ export async function acceptInvitation(userId: string, token: string): Promise<{
     const already = await models.Membership.findOne({ where: { teamId: i.teamId, userId }, transaction });
     if (already) throw new AppError('exists', 'you are already a member of this team');
     await models.Membership.create({ teamId: i.teamId, userId, role: i.role }, { transaction });
+    await recordAudit({ teamId: i.teamId, actorId: userId, action: 'member.joined', targetType: 'member', targetId: userId, summary: { role: i.role, invitationId: i.id } }, transaction);
     i.acceptedAt = new Date();
     i.acceptedById = userId;
     await i.save({ transaction });

@@ -34,6 +34,7 @@ import { conflict, forbidden, invalid, notFound } from '../errors';
 import type { Design, ForkOffer } from '../../models';
 import { canWrite, loadCaller, requireRole, WRITER_ROLES, type Caller } from './access';
 import { recordActivity } from './activity';
+import { recordAudit } from './audit';
 import { appendRevision, loadReadable, readable } from './designs';
 import { revisionSummaryDto, userDto } from './dto';
 
@@ -237,6 +238,17 @@ export async function decideOffer(userId: string, offerId: string, input: Decisi
     await offer.update(
       { state: accept ? 'accepted' : 'declined', decidedById: userId, decidedAt: new Date(), decisionNote: input.note ?? '', resultingRevision: revision ? revision.number : null },
       { transaction },
+    );
+    await recordAudit(
+      {
+        teamId: parent.teamId,
+        actorId: userId,
+        action: accept ? 'offer.accepted' : 'offer.declined',
+        targetType: 'offer',
+        targetId: offer.id,
+        summary: { designId: parent.id, forkDesignId: offer.forkDesignId, forkRevision: offer.forkRevision, resultingRevision: revision ? revision.number : null },
+      },
+      transaction,
     );
     const what = accept
       ? `accepted "${fork.title}" r${offer.forkRevision} into "${parent.title}" as r${revision?.number}`

@@ -21,6 +21,7 @@ import { conflict, forbidden, invalid, notFound } from '../errors';
 import type { Design, ReviewRequest } from '../../models';
 import { canWrite, loadCaller, requireMember, requireRole, WRITER_ROLES, type Caller } from './access';
 import { recordActivity } from './activity';
+import { recordAudit } from './audit';
 import { DECIDER_ROLES, detailDto, includeForReview, latestApproval, loadReadable } from './designs';
 import { approvalDto, reviewDto, userDto } from './dto';
 
@@ -99,6 +100,7 @@ export async function requestReview(userId: string, designId: string, input: Req
       { transaction },
     );
     await setStatus(designId, 'in_review', transaction);
+    await recordAudit({ teamId: d.teamId, actorId: userId, action: 'review.requested', targetType: 'review', targetId: review.id, summary: { designId, revision: input.revision, reviewers: reviewerIds.length } }, transaction);
     const path = reviewPath(designId, input.revision, review.id);
     await recordActivity(
       {
@@ -161,6 +163,10 @@ export async function decideReview(userId: string, designId: string, reviewId: s
       await models.Approval.create({ designId, reviewRequestId: review.id, revision: review.revision, approvedById: userId, note: input.note ?? '' }, { transaction });
     }
     await setStatus(designId, approve ? (locked.latestRevision === review.revision ? 'approved' : 'changed_since_approval') : 'changes_requested', transaction);
+    await recordAudit(
+      { teamId: d.teamId, actorId: userId, action: approve ? 'review.approved' : 'review.changes_requested', targetType: 'review', targetId: review.id, summary: { designId, revision: review.revision } },
+      transaction,
+    );
     const what = approve ? `approved "${d.title}" r${review.revision}` : `asked for changes to "${d.title}" r${review.revision}`;
     await recordActivity(
       {
@@ -203,6 +209,7 @@ export async function withdrawReview(userId: string, designId: string, reviewId:
     if (review.state !== 'open') throw conflict(`this review request is ${review.state.replace('_', ' ')}; only an open request can be withdrawn`);
     await review.update({ state: 'withdrawn' }, { transaction });
     await setStatus(designId, await statusWithoutOpenReview(locked, transaction), transaction);
+    await recordAudit({ teamId: d.teamId, actorId: userId, action: 'review.withdrawn', targetType: 'review', targetId: review.id, summary: { designId, revision: review.revision } }, transaction);
     const reviewerIds = (existing.reviewers ?? []).map((u) => u.id);
     await recordActivity(
       {

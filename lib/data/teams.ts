@@ -9,6 +9,7 @@ import type { MemberDto, Role, TeamDto } from '../api/contract';
 import { db } from '../db';
 import { AppError, notFound } from '../errors';
 import { loadCaller, requireMember, requireRole } from './access';
+import { recordAudit } from './audit';
 import { memberDto } from './dto';
 
 async function memberCounts(teamIds: string[]): Promise<Map<string, number>> {
@@ -80,8 +81,10 @@ export async function changeMemberRole(userId: string, teamId: string, memberId:
     if (member.role === 'owner' && role !== 'owner' && owners.length <= 1) {
       throw new AppError('last_owner', 'a team needs at least one owner; make someone else owner first');
     }
+    const from = member.role;
     member.role = role;
     await member.save({ transaction });
+    if (from !== role) await recordAudit({ teamId, actorId: userId, action: 'member.role_changed', targetType: 'member', targetId: memberId, summary: { from, to: role } }, transaction);
     return memberDto(member);
   });
 }
@@ -103,5 +106,6 @@ export async function removeMember(userId: string, teamId: string, memberId: str
       throw new AppError('last_owner', 'the last owner cannot leave; make someone else owner first');
     }
     await member.destroy({ transaction });
+    await recordAudit({ teamId, actorId: userId, action: 'member.removed', targetType: 'member', targetId: memberId, summary: { role: member.role, left: memberId === userId } }, transaction);
   });
 }

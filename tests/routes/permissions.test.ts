@@ -46,6 +46,7 @@ import { partsCases } from './permissions/parts';
 import { exportsCases } from './permissions/exports';
 import { benchCases } from './permissions/bench';
 import { analysesCases } from './permissions/analyses';
+import { hardeningCases } from './permissions/hardening';
 
 let f: Fixtures;
 
@@ -395,7 +396,7 @@ const coreCases: Case[] = [
   },
 ];
 
-const cases: Case[] = [...coreCases, ...partsCases, ...exportsCases, ...benchCases, ...analysesCases];
+const cases: Case[] = [...coreCases, ...partsCases, ...exportsCases, ...benchCases, ...analysesCases, ...hardeningCases];
 
 beforeAll(async () => {
   f = await setupFixtures();
