@@ -18,6 +18,8 @@ import { ForkOffer } from './fork-offer';
 // comments and activity
 import { Comment } from './comment';
 import { ActivityEvent, ActivityRecipient, NotificationSetting } from './activity';
+// bench data (measurements on the built supply)
+import { BenchDataset } from './bench-dataset';
 // audit log
 import { AuditEvent } from './audit-event';
 
@@ -26,6 +28,8 @@ export { User, Account, Session, VerificationToken, SignInThrottle, Team, Member
 export { ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer };
 // comments and activity
 export { Comment, ActivityEvent, ActivityRecipient, NotificationSetting };
+// bench data
+export { BenchDataset };
 // audit log
 export { AuditEvent };
 
@@ -51,6 +55,8 @@ export interface Models {
   ActivityEvent: typeof ActivityEvent;
   ActivityRecipient: typeof ActivityRecipient;
   NotificationSetting: typeof NotificationSetting;
+  // bench data
+  BenchDataset: typeof BenchDataset;
   // audit log
   AuditEvent: typeof AuditEvent;
 }
@@ -65,6 +71,8 @@ export function initModels(sequelize: Sequelize): Models {
     ...{ ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer },
     // comments and activity
     ...{ Comment, ActivityEvent, ActivityRecipient, NotificationSetting },
+    // bench data
+    ...{ BenchDataset },
     // audit log
     ...{ AuditEvent },
   };
@@ -97,5 +105,7 @@ export function initModels(sequelize: Sequelize): Models {
   ActivityEvent.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
   ActivityEvent.belongsTo(Design, { foreignKey: 'designId', as: 'design' });
   ActivityEvent.hasMany(ActivityRecipient, { foreignKey: 'eventId', as: 'recipients' });
+  // bench data
+  BenchDataset.belongsTo(User, { foreignKey: 'uploadedById', as: 'uploadedBy' });
   return models;
 }
