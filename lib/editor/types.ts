@@ -5,6 +5,7 @@
  * where a component formats a number for display.
  */
 import type { Diagnostic, EstimateResult, SafetySummary, TopologyKind } from '@/lib/circuit';
+import type { EffectiveDerating } from '@/lib/parts/derating';
 
 /** `${blockId}:${port}` — one port on the canvas. */
 export type PortKey = `${string}:${string}`;
@@ -81,6 +82,8 @@ export interface PartStress {
   worstMargin: number | null;
   /** `over`: a check is past the derated limit; `tight`: margin < 0.1; `unrated`: no ratings given. */
   status: 'ok' | 'tight' | 'over' | 'unrated';
+  /** The team library part this part is bound to (its values were copied from it), when bound. */
+  partId?: string;
 }
 
 /** The closed-form estimate (arrives right after the compile). */
@@ -95,6 +98,8 @@ export interface SolveView {
   outputs: { node: string; polarity: 'positive' | 'negative' }[];
   nodes: Record<string, NodeReading>;
   parts: PartStress[];
+  /** The derating the stress was judged at: the stricter of the design's and the team's (lib/parts/derating.ts). */
+  derating?: EffectiveDerating;
   power: { sourceW: number; loadW: number; lossW: number; efficiency: number | null };
   safety: SafetySummary;
   /** Output warm-up from power-on (arrives in a second message after the steady state). */

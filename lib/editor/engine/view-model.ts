@@ -3,12 +3,16 @@
  * the topology badge, human labels for netlist nodes and parts, the netlist node under every
  * canvas port, one reading per node and the stress of every part against its rating.
  *
- * Derating (common practice): a part is judged against `deratingFraction × rating`
- * (`doc.settings.deratingFraction`, default 0.8), margin = (allowed − actual) / allowed.
+ * Derating (common practice): a part is judged against `deratingFraction × rating`, margin =
+ * (allowed − actual) / allowed. The fraction is the stricter of the design's
+ * (`doc.settings.deratingFraction`) and the team's policy, 0.8 when neither is set
+ * (lib/parts/derating.ts). The worker knows only the document; the editor re-judges the solved
+ * stress at the team's fraction with {@link withTeamDerating} (no new solve: only the limits move).
  */
 import { GROUND, type CompileResult, type DesignBlock, type DesignDocument, type LadderReport, type NetlistElement, type SolveResult, type TopologyReport } from '@/lib/circuit';
 import type { CompileView, NodeReading, PartStress, PortKey, SolveView, StressCheck, TopologyBadge } from '../types';
 import { netlistTextOf } from './netlist-text';
+import { DEFAULT_DERATING_FRACTION, resolveDerating } from '@/lib/parts/derating';
 
 type Compiled = CompileResult & { ok: true };
 type Solved = SolveResult & { ok: true };
@@ -17,7 +21,7 @@ type Solved = SolveResult & { ok: true };
 export const TIGHT_MARGIN = 0.1;
 
 /** Default derating fraction when the settings carry none (common practice 0.8). */
-export const DEFAULT_DERATING = 0.8;
+export const DEFAULT_DERATING = DEFAULT_DERATING_FRACTION;
 
 const KIND_TEXT: Record<TopologyReport['kind'], string> = {
   'half-wave': 'Half-wave',
@@ -221,7 +225,7 @@ export function peakDifferenceV(solve: Solved, a: string, b: string): number {
   return Math.max(Math.abs(na.max - nb.min), Math.abs(nb.max - na.min));
 }
 
-type Ratings = { ratedVoltageV?: number; ratedPivV?: number; ratedAvgCurrentA?: number; ratedSurgeA?: number; ratedPowerW?: number };
+type Ratings = { ratedVoltageV?: number; ratedPivV?: number; ratedAvgCurrentA?: number; ratedSurgeA?: number; ratedPowerW?: number; partId?: string | null };
 
 /** Rating fields of the part behind `role` in `block`; a full-wave stage's second column falls back to the first, as the compiler does. */
 function ratingsOf(block: DesignBlock | undefined, role: string): Ratings {
@@ -270,9 +274,10 @@ function summarise(checks: StressCheck[]): Pick<PartStress, 'worstMargin' | 'sta
  *   ({@link peakDifferenceV}).
  * A check without a rating is listed with its actual value only; a part with no rated check is
  * `unrated`. Current-source loads, ESR, source resistance, strays and bleeders are not parts here.
+ * The derating is the stricter of the design's and `teamFraction` (when given).
  */
-export function partStress(doc: DesignDocument, compiled: Compiled, solve: Solved): PartStress[] {
-  const derating = doc.settings?.deratingFraction ?? DEFAULT_DERATING;
+export function partStress(doc: DesignDocument, compiled: Compiled, solve: Solved, teamFraction?: number | null): PartStress[] {
+  const derating = resolveDerating(doc.settings?.deratingFraction, teamFraction).fraction;
   const byId = new Map(doc.blocks.map((b) => [b.id, b] as const));
   const places = stagePlaces(compiled);
   const out: PartStress[] = [];
@@ -298,7 +303,7 @@ export function partStress(doc: DesignDocument, compiled: Compiled, solve: Solve
         check('voltage', peakDifferenceV(solve, el.nodes[0], el.nodes[1]), 'V', r.ratedVoltageV, derating),
       ];
     else continue;
-    out.push({ blockId, role, element: el.name, kind: el.kind, label: partLabel(block, role, places.get(blockId)), checks, ...summarise(checks) });
+    out.push({ blockId, role, element: el.name, kind: el.kind, label: partLabel(block, role, places.get(blockId)), checks, ...summarise(checks), ...(r.partId ? { partId: r.partId } : {}) });
   }
   return out;
 }
@@ -330,8 +335,31 @@ export function solveView(doc: DesignDocument, compiled: Compiled, solve: Solved
     outputs: solve.outputs,
     nodes,
     parts: partStress(doc, compiled, solve),
+    derating: resolveDerating(doc.settings?.deratingFraction, null),
     power: solve.power,
     safety: solve.safety,
     stats: { solveMs: solve.stats.solveMs, shootingIterations: solve.stats.shootingIterations, unknowns: solve.stats.unknowns, steps: solve.stats.steps },
   };
+}
+
+/** The same parts judged at another derating `fraction`: every rated check's limit and margin, and each part's status, recomputed. */
+export function rederateParts(parts: PartStress[], fraction: number): PartStress[] {
+  return parts.map((p) => {
+    const checks = p.checks.map((c) => check(c.quantity, c.actual, c.unit, c.rating, fraction));
+    return { ...p, checks, ...summarise(checks) };
+  });
+}
+
+/**
+ * A solve view judged with the team's derating policy as well: the fraction becomes the stricter
+ * of the design's (`docFraction`) and the team's (`teamFraction`), and when it differs from the
+ * one the view was judged at, every part is re-judged ({@link rederateParts}). Returns the same
+ * object when nothing changes (so memoised readers do not redraw).
+ */
+export function withTeamDerating(solve: SolveView, docFraction: number | null | undefined, teamFraction: number | null | undefined): SolveView {
+  const derating = resolveDerating(docFraction, teamFraction);
+  const current = solve.derating;
+  if (current && current.fraction === derating.fraction && current.source === derating.source) return solve;
+  const parts = current && current.fraction === derating.fraction ? solve.parts : rederateParts(solve.parts, derating.fraction);
+  return { ...solve, parts, derating };
 }
