@@ -18,6 +18,8 @@ import { ForkOffer } from './fork-offer';
 // comments and activity
 import { Comment } from './comment';
 import { ActivityEvent, ActivityRecipient, NotificationSetting } from './activity';
+// analyses (sweeps and spreads)
+import { Analysis } from './analysis';
 // bench data (measurements on the built supply)
 import { BenchDataset } from './bench-dataset';
 // audit log
@@ -28,6 +30,8 @@ export { User, Account, Session, VerificationToken, SignInThrottle, Team, Member
 export { ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer };
 // comments and activity
 export { Comment, ActivityEvent, ActivityRecipient, NotificationSetting };
+// analyses (sweeps and spreads)
+export { Analysis };
 // bench data
 export { BenchDataset };
 // audit log
@@ -55,6 +59,8 @@ export interface Models {
   ActivityEvent: typeof ActivityEvent;
   ActivityRecipient: typeof ActivityRecipient;
   NotificationSetting: typeof NotificationSetting;
+  // analyses (sweeps and spreads)
+  Analysis: typeof Analysis;
   // bench data
   BenchDataset: typeof BenchDataset;
   // audit log
@@ -71,6 +77,8 @@ export function initModels(sequelize: Sequelize): Models {
     ...{ ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer },
     // comments and activity
     ...{ Comment, ActivityEvent, ActivityRecipient, NotificationSetting },
+    // analyses (sweeps and spreads)
+    ...{ Analysis },
     // bench data
     ...{ BenchDataset },
     // audit log
