@@ -136,7 +136,7 @@ export async function uploadDatasheet(partId: string, file: File): Promise<unkno
     throw new ApiError(0, { code: 'network', message: 'Could not reach the server. Check your connection and try again.' });
   }
   const text = await res.text();
-  let body: unknown = undefined;
+  let body: unknown;
   try {
     body = text ? JSON.parse(text) : undefined;
   } catch {
