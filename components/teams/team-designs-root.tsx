@@ -95,6 +95,9 @@ export function TeamDesignsRoot({ teamId }: { teamId: string }) {
         </div>
         <div className="flex flex-wrap items-center gap-3">
           <TeamSwitcher teamId={teamId} />
+          <ButtonLink href={`/teams/${teamId}/parts`} variant="secondary" data-testid="team-parts-link">
+            Parts library
+          </ButtonLink>
           <ButtonLink href={`/teams/${teamId}/settings`} variant="secondary" data-testid="team-settings-link">
             Members &amp; settings
           </ButtonLink>
