@@ -9,6 +9,7 @@ import type { DesignDetailDto } from '@/lib/api/contract';
 import { ApiError, formError } from '@/lib/client/api';
 import { formatDateTime, statusLabel } from '@/lib/client/format';
 import { useDesign, useForkDesign, useMe, useRevision, useRevisions, useUpdateDesign } from '@/lib/client/hooks';
+import { BenchPanel } from '@/components/bench/bench-panel';
 import { CommentsPanel } from '@/components/comments/comments-panel';
 import { DesignEditor } from '@/components/editor/design-editor';
 import { DocumentSummaryView } from './document-summary-view';
@@ -234,7 +235,7 @@ export function DesignRoot({ designId }: { designId: string }) {
 
           {/* lane analyses: sweeps and tolerance spreads panel mounts here */}
 
-          {/* lane bench: bench-data panel mounts here */}
+          <BenchPanel designId={d.id} revision={selected} canUpload={p.edit} />
 
           <CommentsPanel designId={d.id} teamId={d.teamId} revision={selected} canComment={p.comment} focusCommentId={search.get('comment')} />
 
