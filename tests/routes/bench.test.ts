@@ -16,6 +16,7 @@ import * as dataset from '@/app/api/bench/[datasetId]/route';
 import * as datasetFile from '@/app/api/bench/[datasetId]/file/route';
 import * as revisions from '@/app/api/designs/[designId]/revisions/route';
 import { createDesign } from '@/lib/data/designs';
+import { DEMO_BENCH_ID, seedBench } from '@/scripts/seed-bench';
 import { modelLoadCurve, solveOutput } from '@/lib/bench/model';
 import { PeriodicWave } from '@/lib/bench/compare';
 import type { BenchDatasetDto, BenchDetailDto, BenchInspectDto } from '@/lib/bench/types';
@@ -253,5 +254,21 @@ describe('bad uploads store nothing', () => {
       expect((await call(dataset.DELETE, `/api/bench/${id}`, { method: 'DELETE', params: { datasetId: id }, as: f.users[who] })).status).toBe(404);
     }
     expect(await stored(privateDesign)).toEqual({ rows: 1, objects: 1 });
+  });
+});
+
+describe('demo bench data (scripts/seed-bench.ts)', () => {
+  it('adds one invented load curve once, marked as invented, that reads and compares', async () => {
+    const designId = await newDesign();
+    const seedOnce = () => db().sequelize.transaction((t) => seedBench(t, { designId, revision: 1, uploadedById: f.users.designer.id }));
+    expect(await seedOnce()).toBe(1);
+    expect(await seedOnce()).toBe(0);
+    expect(await stored(designId)).toEqual({ rows: 1, objects: 1 });
+    const got = await call<BenchDetailDto>(dataset.GET, `/api/bench/${DEMO_BENCH_ID}`, { params: { datasetId: DEMO_BENCH_ID }, as: f.users.viewer });
+    expect(got.status).toBe(200);
+    expect(got.body.dataset.name).toMatch(/invented demo data/);
+    expect(got.body.dataset.notes).toMatch(/not a measurement/);
+    expect(got.body.points).toHaveLength(7);
+    expect(got.body.comparison.ok).toBe(true);
   });
 });
