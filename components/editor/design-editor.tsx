@@ -19,6 +19,7 @@ import { clearWorkingCopy, readWorkingCopy, writeWorkingCopy, type WorkingCopy }
 import { compareDocuments, sameValue, type DocumentComparison } from '@/lib/editor/compare';
 import { useEngine } from '@/lib/editor/engine/use-engine';
 import { downloadText, exportDesignJson, exportNetlistText, importDesignFile } from '@/lib/editor/io';
+import { EditorPartsProvider, useTeamDeratedSnapshot } from '@/components/parts/editor-parts-context';
 import { BlockInspector, SettingsInspector } from './inspector';
 import { ResultsPanel } from './panel';
 import { BlockTray } from './block-tray';
@@ -68,7 +69,10 @@ export function DesignEditor(props: DesignEditorProps) {
     <EditorStoreProvider document={props.document} readOnly={readOnly}>
       <ReactFlowProvider>
         <HoverContext.Provider value={hover}>
-          <EditorBody {...props} />
+          {/* The team's parts library (binding in the inspector) and its derating policy (stress). */}
+          <EditorPartsProvider designId={props.designId}>
+            <EditorBody {...props} />
+          </EditorPartsProvider>
         </HoverContext.Provider>
       </ReactFlowProvider>
     </EditorStoreProvider>
@@ -250,7 +254,7 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
   const readOnly = useEditor((s) => s.readOnly);
   const dirty = useEditor((s) => s.dirty);
   const lastRefusal = useEditor((s) => s.lastRefusal);
-  const snapshot = useEngine(document, version, editor);
+  const snapshot = useTeamDeratedSnapshot(useEngine(document, version, editor), document.settings.deratingFraction);
   const canvasBox = useRef<HTMLDivElement>(null);
   const [dcLabels, setDcLabels] = useState(false);
   const [help, setHelp] = useState(false);

@@ -23,6 +23,9 @@ import {
   withPartId,
 } from '@/lib/editor/fields';
 import { formatReading } from '@/lib/editor/format';
+import { keepBindingAfterEdit } from '@/lib/parts/binding';
+import { useEditorParts } from '@/components/parts/editor-parts-context';
+import { PartBinding } from './part-binding';
 
 const KIND_TITLE: Record<DesignBlock['kind'], string> = {
   acSource: 'AC drive',
@@ -63,20 +66,36 @@ function PartGroup({ title, place, open, children, testId }: { title: string; pl
 }
 
 function CapacitorForm({ spec, onChange, readOnly, testId }: { spec: CapacitorSpec; onChange: (s: CapacitorSpec) => void; readOnly: boolean; testId: string }) {
+  const library = useEditorParts() !== null;
   return (
     <>
-      <SpecFields specs={CAPACITOR_FIELDS} value={spec} onChange={onChange} readOnly={readOnly} testIdPrefix={testId} />
-      <PartIdField value={spec.partId} readOnly={readOnly} onCommit={(partId) => onChange(withPartId(spec, partId))} />
+      {library ? <PartBinding kind="capacitor" spec={spec} onChange={(s) => onChange(s as CapacitorSpec)} readOnly={readOnly} testId={testId} /> : null}
+      <SpecFields specs={CAPACITOR_FIELDS} value={spec} onChange={(next) => onChange(keepBindingAfterEdit('capacitor', spec, next))} readOnly={readOnly} testIdPrefix={testId} />
+      {library ? null : <PartIdField value={spec.partId} readOnly={readOnly} onCommit={(partId) => onChange(withPartId(spec, partId))} />}
     </>
   );
 }
 
 function DiodeForm({ spec, onChange, readOnly, testId }: { spec: DiodeSpec; onChange: (s: DiodeSpec) => void; readOnly: boolean; testId: string }) {
+  const library = useEditorParts() !== null;
   return (
     <>
       <p className="text-[11px] text-ink-400">Shockley diode equation with series resistance; ratings are the part&apos;s limits.</p>
-      <SpecFields specs={DIODE_FIELDS} value={spec} onChange={onChange} readOnly={readOnly} testIdPrefix={testId} />
-      <PartIdField value={spec.partId} readOnly={readOnly} onCommit={(partId) => onChange(withPartId(spec, partId))} />
+      {library ? <PartBinding kind="diode" spec={spec} onChange={(s) => onChange(s as DiodeSpec)} readOnly={readOnly} testId={testId} /> : null}
+      <SpecFields specs={DIODE_FIELDS} value={spec} onChange={(next) => onChange(keepBindingAfterEdit('diode', spec, next))} readOnly={readOnly} testIdPrefix={testId} />
+      {library ? null : <PartIdField value={spec.partId} readOnly={readOnly} onCommit={(partId) => onChange(withPartId(spec, partId))} />}
+    </>
+  );
+}
+
+function ResistorForm({ block, onChange, readOnly }: { block: Of<'resistor'>; onChange: (b: DesignBlock) => void; readOnly: boolean }) {
+  const library = useEditorParts() !== null;
+  const spec = block.data;
+  return (
+    <>
+      {library ? <PartBinding kind="resistor" spec={spec} onChange={(data) => onChange({ ...block, data: data as typeof spec })} readOnly={readOnly} testId="field" /> : null}
+      <SpecFields specs={RESISTOR_FIELDS} value={spec} onChange={(data) => onChange({ ...block, data: keepBindingAfterEdit('resistor', spec, data) })} readOnly={readOnly} testIdPrefix="field" />
+      {library ? null : <PartIdField value={spec.partId} readOnly={readOnly} onCommit={(partId) => onChange({ ...block, data: withPartId(spec, partId) })} />}
     </>
   );
 }
@@ -236,12 +255,7 @@ function KindForm({ block, onChange, readOnly }: { block: DesignBlock; onChange:
     case 'diode':
       return <DiodeForm spec={block.data} onChange={(data) => onChange({ ...block, data })} readOnly={readOnly} testId="field" />;
     case 'resistor':
-      return (
-        <>
-          <SpecFields specs={RESISTOR_FIELDS} value={block.data} onChange={(data) => onChange({ ...block, data })} readOnly={readOnly} testIdPrefix="field" />
-          <PartIdField value={block.data.partId} readOnly={readOnly} onCommit={(partId) => onChange({ ...block, data: withPartId(block.data, partId) })} />
-        </>
-      );
+      return <ResistorForm block={block} onChange={onChange} readOnly={readOnly} />;
   }
 }
 

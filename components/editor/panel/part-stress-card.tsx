@@ -2,12 +2,15 @@ import type { PartStress } from '@/lib/editor/types';
 import { formatPercent, formatReading } from '@/lib/editor/format';
 import { checkStatus, quantityLabel } from './panel-model';
 import { CHECK_TONE, CHECK_WORD } from './status-text';
+import { useEditorParts } from '@/components/parts/editor-parts-context';
 
 /**
  * The reading that appears over a block: each of its parts' stresses against the derated
- * rating, with the margin, flagged when over the limit or tight.
+ * rating, with the margin, flagged when over the limit or tight; a part bound to the team
+ * library shows its part number.
  */
 export function PartStressCard({ stresses, title }: { stresses: PartStress[]; title: string }) {
+  const lib = useEditorParts();
   const worst = stresses.some((p) => p.status === 'over') ? 'over' : stresses.some((p) => p.status === 'tight') ? 'tight' : 'ok';
   return (
     <div
@@ -25,7 +28,10 @@ export function PartStressCard({ stresses, title }: { stresses: PartStress[]; ti
         {stresses.map((p) => (
           <li key={`${p.blockId}:${p.role}`} data-status={p.status}>
             <p className="flex justify-between gap-2 text-ink-200">
-              <span className="truncate">{p.label}</span>
+              <span className="truncate">
+                {p.label}
+                {p.partId && lib?.byId.get(p.partId) ? <span className="ml-1.5 font-mono text-[10px] text-copper-100">{lib.byId.get(p.partId)?.partNumber}</span> : null}
+              </span>
               <span className="shrink-0 font-mono text-[10px] text-ink-400">{p.element}</span>
             </p>
             <table className="w-full">

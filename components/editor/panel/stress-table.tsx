@@ -1,21 +1,35 @@
 'use client';
 
-import { Fragment, useState } from 'react';
+import { Fragment, useMemo, useState } from 'react';
 import type { PartStress } from '@/lib/editor/types';
 import { formatPercent, formatReading } from '@/lib/editor/format';
+import { resolveDerating } from '@/lib/parts/derating';
+import { useEditorParts } from '@/components/parts/editor-parts-context';
+import { useEditor } from '../store-context';
 import { stressCounts, stressRows } from './panel-model';
 import { CHECK_TONE, CHECK_WORD } from './status-text';
 
+const DERATING_SOURCE = { team: 'team policy', design: 'this design’s setting, stricter than the team’s', default: 'common practice' } as const;
+
 /**
  * Every part's stress against its rating and the derated limit, with the margin; rows over the
- * limit or tight are flagged. A part's name shows it on the canvas.
+ * limit or tight are flagged. A part's name shows it on the canvas. The line above the table
+ * says which derating the limits use (the stricter of the design's and the team's policy), and a
+ * part bound to the team library shows its part number.
  */
 export function StressTable({ parts, onFocusBlock, stale }: { parts: PartStress[]; onFocusBlock: (blockId: string) => void; stale: boolean }) {
   const [worstFirst, setWorstFirst] = useState(true);
   const rows = stressRows(parts, worstFirst);
   const counts = stressCounts(parts);
+  const lib = useEditorParts();
+  const docFraction = useEditor((s) => s.document.settings.deratingFraction);
+  const derating = resolveDerating(docFraction, lib?.teamFraction);
+  const partIdOf = useMemo(() => new Map(parts.map((p) => [p.element, p.partId] as const)), [parts]);
   return (
     <div className="space-y-1">
+      <p className="text-[11px] text-ink-400" data-testid="stress-derating" data-fraction={derating.fraction} data-source={derating.source}>
+        Judged at {formatPercent(derating.fraction)} of rating ({DERATING_SOURCE[derating.source]}).
+      </p>
       <div className="flex items-center justify-between gap-2 text-xs">
         <p className="text-ink-200" data-testid="stress-summary">
           {counts.over > 0 ? <span className="font-semibold text-hazard-100">{counts.over} over the derated limit</span> : <span className="text-lagoon-100">none over the limit</span>}
@@ -63,6 +77,7 @@ export function StressTable({ parts, onFocusBlock, stale }: { parts: PartStress[
                         {r.partLabel}
                       </button>
                       <span className="ml-2 font-mono text-[10px] font-normal text-ink-400">{r.element}</span>
+                      <BoundPartNumber partId={partIdOf.get(r.element)} />
                     </th>
                   </tr>
                 ) : null}
@@ -82,5 +97,18 @@ export function StressTable({ parts, onFocusBlock, stale }: { parts: PartStress[
         </table>
       </div>
     </div>
+  );
+}
+
+/** The library part number of a bound part ("library part" when it is no longer in the library). */
+function BoundPartNumber({ partId }: { partId: string | undefined }) {
+  const lib = useEditorParts();
+  if (!partId || !lib) return null;
+  const part = lib.byId.get(partId);
+  if (!part && lib.loading) return null;
+  return (
+    <span className="ml-2 rounded border border-copper-600 px-1 font-mono text-[10px] font-normal text-copper-100" data-testid="stress-part-number" title={part ? 'Bound to this team library part' : 'Bound to a part no longer in the team library'}>
+      {part ? part.partNumber : 'library part (removed)'}
+    </span>
   );
 }
