@@ -19,6 +19,8 @@ export const ERROR_STATUS = {
   invalid: 422,
   rate_limited: 429,
   internal: 500,
+  /** The database could not be reached (stopped, restarting, pool exhausted): nothing was changed; retry. */
+  unavailable: 503,
 } as const;
 
 /** The error codes the API uses. */

@@ -7,7 +7,7 @@
  */
 import type { NextRequest } from 'next/server';
 import { z } from 'zod';
-import { UniqueConstraintError } from 'sequelize';
+import { ConnectionError, DatabaseError, UniqueConstraintError } from 'sequelize';
 import { MAX_BODY_BYTES } from './contract';
 import { AppError, notFound } from '../errors';
 import { requireUser, type SessionUser } from '../auth/session';
@@ -50,11 +50,37 @@ export function json(data: unknown, status = 200): Response {
   return Response.json(data, { status, headers: { 'cache-control': 'no-store' } });
 }
 
-/** The JSON error response for `e` (an AppError, a ZodError, or anything else → 500). */
+/** What a client is told when the database cannot be reached: a change was not made. */
+export const DB_UNAVAILABLE_WRITE = 'Not saved — the server could not reach its database. Retry.';
+export const DB_UNAVAILABLE_READ = 'The server could not reach its database. Retry in a moment.';
+
+// PostgreSQL SQLSTATE classes 08 (connection exception) and 57P (operator intervention: shutdown,
+// crash, cannot connect now), and what node-postgres says when the server goes away mid-query
+const UNAVAILABLE_SQLSTATE = /^(08|57P0[1-3])/;
+const UNAVAILABLE_TEXT = /Connection terminated|not queryable|ECONNREFUSED|ECONNRESET|EPIPE|the database system is (starting up|shutting down|in recovery mode)/i;
+
+/** True when `e` says the database could not be reached (so the request changed nothing it can promise). */
+export function isDatabaseUnavailable(e: unknown): boolean {
+  if (e instanceof ConnectionError) return true;
+  if (e instanceof DatabaseError) {
+    const parent = (e as DatabaseError & { parent?: { code?: string; message?: string } }).parent;
+    return UNAVAILABLE_SQLSTATE.test(parent?.code ?? '') || UNAVAILABLE_TEXT.test(parent?.message ?? e.message);
+  }
+  return e instanceof Error && UNAVAILABLE_TEXT.test(e.message) && /connection|ECONN|EPIPE|database system/i.test(e.message);
+}
+
+/** The JSON error response for `e` (an AppError, a ZodError, an unreachable database → 503, or anything else → 500). */
 export function errorResponse(e: unknown, where: string): Response {
   if (e instanceof AppError) return json(e.toBody(), e.status);
   if (e instanceof z.ZodError) return json(zodError(e).toBody(), 422);
   if (e instanceof UniqueConstraintError) return json(new AppError('exists', 'that already exists').toBody(), 409);
+  if (isDatabaseUnavailable(e)) {
+    console.error(`[api] ${where} failed: database unavailable (${(e as Error).name}: ${(e as Error).message})`);
+    const write = !/^(GET|HEAD|OPTIONS) /.test(where);
+    const res = json(new AppError('unavailable', write ? DB_UNAVAILABLE_WRITE : DB_UNAVAILABLE_READ).toBody(), 503);
+    res.headers.set('retry-after', '2');
+    return res;
+  }
   const detail = e instanceof Error ? `${e.name}: ${e.message}\n${e.stack ?? ''}` : String(e);
   console.error(`[api] ${where} failed: ${detail}`);
   return json({ error: { code: 'internal', message: 'something went wrong on the server' } }, 500);
