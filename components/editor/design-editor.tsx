@@ -15,7 +15,7 @@ import { createBlock, type TrayItemKey } from '@/lib/circuit/document/tray';
 import { ApiError, api as callApi, formError } from '@/lib/client/api';
 import { formatDateTime } from '@/lib/client/format';
 import { keys, useSaveRevision } from '@/lib/client/hooks';
-import { clearWorkingCopy, readWorkingCopy, writeWorkingCopy, type WorkingCopy } from '@/lib/editor/autosave';
+import { clearWorkingCopy, readWorkingCopy, saveFailureText, writeWorkingCopy, type WorkingCopy } from '@/lib/editor/autosave';
 import { compareDocuments, sameValue, type DocumentComparison } from '@/lib/editor/compare';
 import { useEngine } from '@/lib/editor/engine/use-engine';
 import { downloadText, exportDesignJson, exportNetlistText, importDesignFile } from '@/lib/editor/io';
@@ -332,7 +332,7 @@ function EditorBody({ designId, title, revisionNumber, document: initialDocument
             if (e instanceof ApiError && e.status === 409 && e.latestRevision !== undefined) {
               setSaving(false);
               setConflict({ latest: e.latestRevision, comparison: null });
-            } else setNotice({ tone: 'error', text: formError(e) ?? 'The revision could not be saved.' });
+            } else setNotice({ tone: 'error', text: saveFailureText(e instanceof ApiError ? e.status : 0, formError(e)) });
           },
         },
       );

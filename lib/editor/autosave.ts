@@ -63,3 +63,16 @@ export function clearWorkingCopy(store: KeyValueStore, designId: string): void {
     // Storage unavailable: nothing was kept, so nothing to forget.
   }
 }
+
+/**
+ * What the editor shows when a save answers 503 (the server could not reach its database): the
+ * revision was not stored, the edits are still here (and in this browser's working copy), and
+ * saving again is safe. The server sends the same words (lib/api/handler.ts DB_UNAVAILABLE_WRITE).
+ */
+export const NOT_SAVED_RETRY = 'Not saved — the server could not reach its database. Retry.';
+
+/** The save-failure text for an API error's status and message (503 → {@link NOT_SAVED_RETRY}). */
+export function saveFailureText(status: number, message: string | undefined): string {
+  if (status === 503) return NOT_SAVED_RETRY;
+  return message ?? 'The revision could not be saved.';
+}
