@@ -94,7 +94,7 @@ export function ImportDialog({ teamId, onClose }: { teamId: string; onClose: () 
         <label htmlFor={fileId} className="mb-1 block text-sm font-medium text-ink-200">
           CSV file
         </label>
-        <input id={fileId} type="file" accept=".csv,text/csv" onChange={(e) => void pick(e.target.files?.[0])} data-testid="import-file" className="block text-sm text-ink-100 file:mr-3 file:rounded-md file:border file:border-ink-600 file:bg-ink-800 file:px-3 file:py-1.5 file:text-ink-100" />
+        <input id={fileId} type="file" accept=".csv,text/csv" onChange={(e) => void pick(e.target.files?.[0])} data-testid="parts-import-file" className="block text-sm text-ink-100 file:mr-3 file:rounded-md file:border file:border-ink-600 file:bg-ink-800 file:px-3 file:py-1.5 file:text-ink-100" />
       </div>
       {readError ? <Notice tone="error">{readError}</Notice> : null}
       {run.error ? <Notice tone="error">{formError(run.error)}</Notice> : null}

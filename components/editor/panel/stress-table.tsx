@@ -81,7 +81,7 @@ export function StressTable({ parts, onFocusBlock, stale }: { parts: PartStress[
                     </th>
                   </tr>
                 ) : null}
-                <tr data-status={r.status} data-block-id={r.blockId} className={r.status === 'over' ? 'bg-hazard-700/25' : r.status === 'tight' ? 'bg-copper-800/25' : ''}>
+                <tr data-status={r.status} data-block-id={r.blockId} data-element={r.element} data-quantity={r.quantity} data-margin={r.margin ?? ''} className={r.status === 'over' ? 'bg-hazard-700/25' : r.status === 'tight' ? 'bg-copper-800/25' : ''}>
                   <td className="px-1.5 py-0.5 pl-3 leading-tight text-ink-400">{r.quantity}</td>
                   <td className="whitespace-nowrap px-1.5 py-0.5 text-right font-mono text-ink-100">{formatReading(r.actual, r.unit, 3)}</td>
                   <td className="whitespace-nowrap px-1.5 py-0.5 text-right font-mono text-ink-200">{formatReading(r.rating, r.unit, 3)}</td>
