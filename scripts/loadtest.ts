@@ -1,0 +1,350 @@
+/**
+ * `npm run loadtest [-- options]`: many signed-in clients against the production build and a real
+ * PostgreSQL on loopback, with autocannon (npm, pinned 9.0.0). Not part of `npm test`.
+ *
+ * What it does:
+ * 1. Unless --url is given, starts `next start` (the build in .next must exist: `npx next build`)
+ *    on --port with this shell's DATABASE_URL / NEXTAUTH_SECRET, and waits for /api/health.
+ * 2. Creates a load-test team (invented: "Tallgrass Instruments load bench <time>"), one owner and
+ *    --users designers (default: the largest client count), and --designs designs made through the
+ *    API. Sessions are minted with next-auth's own `encode` and the server's NEXTAUTH_SECRET; three
+ *    users also sign in for real through the credentials callback as a check.
+ * 3. For each --clients count (default 50,200) runs autocannon for --duration seconds or --amount
+ *    requests, whichever ends first. Every connection is one client cycling through a realistic
+ *    session: list designs → open a design → save a revision on the base it opened (a 409 from a
+ *    colleague's save is handled by re-opening, as the editor does) → read comments → comment →
+ *    open again → save again → compare two revisions (the compare page solves both on the
+ *    server; --no-solve leaves it out). Each cycle takes the next user and one of the designs, so
+ *    saves on one design do collide.
+ * 4. Prints requests/s, p50/p95/p99 per request kind, non-2xx answers and socket errors, then counts
+ *    the revisions in the database and compares them with the saves that were answered 201 (they must
+ *    be equal; the exit code is 1 when they are not).
+ *
+ * Options: --url URL --port N (default $E2E_PORT or 3716) --clients 50,200 --duration 20 --amount 40000
+ *          --designs 20 --users N --no-solve --timeout 10 (s per request)
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { createRequire } from 'node:module';
+import { encode } from 'next-auth/jwt';
+import { closeDb, db } from '../lib/db';
+import { hashPassword } from '../lib/auth/password';
+import { halfWaveStarter } from '../lib/circuit/document/starters';
+import { designDocumentSchema, type DesignDocument } from '../lib/circuit/document/schema';
+
+// ---- options ----
+const argv = process.argv.slice(2);
+function opt(name: string, fallback: string): string {
+  const i = argv.indexOf(`--${name}`);
+  return i >= 0 && argv[i + 1] !== undefined ? argv[i + 1] : fallback;
+}
+const flag = (name: string) => argv.includes(`--${name}`);
+const PORT = Number(opt('port', process.env.E2E_PORT ?? '3716'));
+const EXTERNAL_URL = opt('url', '');
+const BASE = (EXTERNAL_URL || `http://127.0.0.1:${PORT}`).replace(/\/$/, '');
+const CLIENTS = opt('clients', '50,200').split(',').map(Number).filter((n) => n > 0);
+const DURATION_S = Number(opt('duration', '20'));
+const AMOUNT = Number(opt('amount', '40000'));
+const DESIGNS = Number(opt('designs', '20'));
+const USERS = Number(opt('users', String(Math.max(...CLIENTS))));
+const SOLVE = !flag('no-solve');
+const TIMEOUT_S = Number(opt('timeout', '10'));
+
+if (!process.env.DATABASE_URL) throw new Error('set DATABASE_URL (source scripts/env.sh) to the database the server uses');
+if (!process.env.NEXTAUTH_SECRET) throw new Error('set NEXTAUTH_SECRET (source scripts/env.sh): sessions are minted with the server secret');
+if (!EXTERNAL_URL) process.env.NEXTAUTH_URL = BASE;
+
+// ---- autocannon (CommonJS, no bundled types: the part used here) ----
+interface AcRequest {
+  method?: string;
+  path?: string;
+  headers?: Record<string, string>;
+  body?: string;
+}
+interface AcRequestSpec {
+  setupRequest: (req: AcRequest, context: Ctx) => AcRequest;
+  onResponse: (status: number, body: string, context: Ctx) => void;
+}
+interface AcResult {
+  requests: { average: number; total: number; sent: number };
+  latency: { p50: number; p97_5: number; p99: number };
+  errors: number;
+  timeouts: number;
+  non2xx: number;
+  duration: number;
+  '2xx': number;
+}
+type Autocannon = (o: Record<string, unknown>) => Promise<AcResult>;
+const autocannon = createRequire(import.meta.url)('autocannon') as Autocannon;
+
+// ---- per-kind timing ----
+type Kind = 'list' | 'open' | 'save' | 'comments' | 'comment' | 'solve';
+const KINDS: Kind[] = ['list', 'open', 'save', 'comments', 'comment', 'solve'];
+interface KindStats {
+  ms: number[];
+  status: Map<number, number>;
+}
+let stats: Record<Kind, KindStats>;
+function resetStats() {
+  stats = Object.fromEntries(KINDS.map((k) => [k, { ms: [], status: new Map() }])) as unknown as Record<Kind, KindStats>;
+}
+let saved201 = 0;
+let saved409 = 0;
+
+interface Ctx {
+  user?: number;
+  design?: number;
+  base?: number;
+  t0?: bigint;
+  kind?: Kind;
+}
+
+function pct(sorted: number[], p: number): number {
+  if (sorted.length === 0) return NaN;
+  return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))];
+}
+
+// ---- server ----
+let server: ChildProcess | null = null;
+async function waitHealthy(ms: number): Promise<void> {
+  const until = Date.now() + ms;
+  for (;;) {
+    try {
+      const res = await fetch(`${BASE}/api/health`);
+      if (res.ok) return;
+    } catch {
+      // not up yet
+    }
+    if (Date.now() > until) throw new Error(`${BASE}/api/health did not answer 200 within ${ms} ms`);
+    await new Promise((r) => setTimeout(r, 300));
+  }
+}
+async function startServer(): Promise<void> {
+  server = spawn('node_modules/.bin/next', ['start', '-H', '127.0.0.1', '-p', String(PORT)], {
+    env: { ...process.env, NODE_ENV: 'production', NEXTAUTH_URL: BASE },
+    stdio: ['ignore', 'ignore', 'pipe'],
+  });
+  server.stderr?.on('data', (d: Buffer) => process.stderr.write(`[next] ${d.toString()}`));
+  await waitHealthy(60_000);
+}
+
+// ---- fixtures ----
+interface Fixture {
+  teamId: string;
+  designIds: string[];
+  cookies: string[];
+  owner: string;
+}
+
+function doc(capacitanceF: number): DesignDocument {
+  return designDocumentSchema.parse(halfWaveStarter(3, { amplitudeV: 2000, frequencyHz: 20_000, capacitanceF, loadCurrentA: 1e-4 }));
+}
+
+async function cookieFor(u: { id: string; name: string; email: string }): Promise<string> {
+  const token = await encode({ token: { sub: u.id, name: u.name, email: u.email }, secret: process.env.NEXTAUTH_SECRET! });
+  const secure = BASE.startsWith('https://');
+  return `${secure ? '__Secure-' : ''}next-auth.session-token=${token}`;
+}
+
+async function setup(): Promise<Fixture> {
+  const { Team, User, Membership } = db().models;
+  const stamp = new Date().toISOString().replace(/[-:.TZ]/g, '').slice(0, 14);
+  const team = await Team.create({ name: `Tallgrass Instruments load bench ${stamp}` });
+  const passwordHash = await hashPassword(`load-${stamp}-password`);
+  const mk = async (name: string, role: 'owner' | 'designer') => {
+    const u = await User.create({ name, email: `${name.toLowerCase().replace(/\s+/g, '.')}.${stamp}@loadbench.test`, passwordHash, emailVerified: null, image: null });
+    await Membership.create({ teamId: team.id, userId: u.id, role });
+    return { id: u.id, name, email: u.email };
+  };
+  const owner = await mk('Load Owner', 'owner');
+  const users = [];
+  for (let i = 0; i < USERS; i++) users.push(await mk(`Load Designer ${i + 1}`, 'designer'));
+  const cookies = await Promise.all(users.map(cookieFor));
+  const ownerCookie = await cookieFor(owner);
+  const designIds: string[] = [];
+  for (let i = 0; i < DESIGNS; i++) {
+    const res = await fetch(`${BASE}/api/teams/${team.id}/designs`, {
+      method: 'POST',
+      headers: { cookie: ownerCookie, 'content-type': 'application/json' },
+      body: JSON.stringify({ title: `Load ladder ${i + 1}`, document: doc(10e-9), message: 'load test start' }),
+    });
+    if (res.status !== 201) throw new Error(`creating a design answered ${res.status}: ${await res.text()}`);
+    designIds.push(((await res.json()) as { design: { id: string } }).design.id);
+  }
+  // a second revision on each, so the compare page has two revisions to solve
+  for (const id of designIds) {
+    const res = await fetch(`${BASE}/api/designs/${id}/revisions`, {
+      method: 'POST',
+      headers: { cookie: ownerCookie, 'content-type': 'application/json' },
+      body: JSON.stringify({ baseRevision: 1, document: doc(22e-9), message: 'bigger capacitors' }),
+    });
+    if (res.status !== 201) throw new Error(`second revision answered ${res.status}`);
+  }
+  // three real sign-ins through next-auth's credentials callback
+  for (const u of users.slice(0, 3)) {
+    const csrfRes = await fetch(`${BASE}/api/auth/csrf`);
+    const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
+    const jar = csrfRes.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    const res = await fetch(`${BASE}/api/auth/callback/credentials`, {
+      method: 'POST',
+      redirect: 'manual',
+      headers: { cookie: jar, 'content-type': 'application/x-www-form-urlencoded' },
+      body: new URLSearchParams({ csrfToken, email: u.email, password: `load-${stamp}-password`, callbackUrl: `${BASE}/designs`, json: 'true' }),
+    });
+    const session = res.headers.getSetCookie().find((c) => /next-auth\.session-token=/.test(c));
+    if (!session) throw new Error(`sign-in through the credentials callback gave no session cookie (${res.status})`);
+    const me = await fetch(`${BASE}/api/me`, { headers: { cookie: session.split(';')[0] } });
+    if (me.status !== 200) throw new Error(`/api/me with the signed-in cookie answered ${me.status}`);
+  }
+  console.log(`[load] team ${team.id}: ${USERS} designers, ${DESIGNS} designs (2 revisions each); 3 real sign-ins checked`);
+  return { teamId: team.id, designIds, cookies, owner: ownerCookie };
+}
+
+// ---- the session every connection cycles through ----
+let nextUser = 0;
+function requests(fx: Fixture): AcRequestSpec[] {
+  const designOf = (c: Ctx) => fx.designIds[c.design!];
+  const start = (c: Ctx, kind: Kind) => {
+    c.kind = kind;
+    c.t0 = process.hrtime.bigint();
+  };
+  const done = (status: number, c: Ctx) => {
+    if (!c.kind || c.t0 === undefined) return;
+    const s = stats[c.kind];
+    s.ms.push(Number(process.hrtime.bigint() - c.t0) / 1e6);
+    s.status.set(status, (s.status.get(status) ?? 0) + 1);
+  };
+  const json = { 'content-type': 'application/json' };
+  const h = (c: Ctx, extra: Record<string, string> = {}) => ({ cookie: fx.cookies[c.user!], ...extra });
+  const open: AcRequestSpec = {
+    setupRequest: (req, c) => {
+      start(c, 'open');
+      return { ...req, method: 'GET', path: `/api/designs/${designOf(c)}`, headers: h(c) };
+    },
+    onResponse: (status, body, c) => {
+      done(status, c);
+      if (status === 200) c.base = (JSON.parse(body) as { design: { latestRevision: number } }).design.latestRevision;
+    },
+  };
+  let seq = 0;
+  const save: AcRequestSpec = {
+    setupRequest: (req, c) => {
+      start(c, 'save');
+      seq++;
+      return {
+        ...req,
+        method: 'POST',
+        path: `/api/designs/${designOf(c)}/revisions`,
+        headers: h(c, json),
+        body: JSON.stringify({ baseRevision: c.base ?? 1, document: doc((1 + (seq % 997)) * 1e-10), message: `load save ${seq}` }),
+      };
+    },
+    onResponse: (status, body, c) => {
+      done(status, c);
+      if (status === 201) {
+        saved201++;
+        c.base = (JSON.parse(body) as { revision: { number: number } }).revision.number;
+      } else if (status === 409) saved409++; // a colleague saved first: the next step re-opens
+    },
+  };
+  const list: AcRequestSpec[] = [
+    {
+      setupRequest: (req, c) => {
+        c.user = nextUser++ % fx.cookies.length;
+        c.design = c.user % fx.designIds.length;
+        start(c, 'list');
+        return { ...req, method: 'GET', path: `/api/teams/${fx.teamId}/designs`, headers: h(c) };
+      },
+      onResponse: (status, _b, c) => done(status, c),
+    },
+    open,
+    save,
+    {
+      setupRequest: (req, c) => {
+        start(c, 'comments');
+        return { ...req, method: 'GET', path: `/api/designs/${designOf(c)}/comments`, headers: h(c) };
+      },
+      onResponse: (status, _b, c) => done(status, c),
+    },
+    {
+      setupRequest: (req, c) => {
+        start(c, 'comment');
+        return {
+          ...req,
+          method: 'POST',
+          path: `/api/designs/${designOf(c)}/comments`,
+          headers: h(c, json),
+          body: JSON.stringify({ revision: 1, body: 'Load check: is C3 derated for the full output?', anchor: { kind: 'design' } }),
+        };
+      },
+      onResponse: (status, _b, c) => done(status, c),
+    },
+    open,
+    save,
+  ];
+  if (SOLVE) {
+    list.push({
+      setupRequest: (req, c) => {
+        start(c, 'solve');
+        return { ...req, method: 'GET', path: `/designs/${designOf(c)}/compare?a=1&b=2`, headers: h(c) };
+      },
+      onResponse: (status, _b, c) => done(status, c),
+    });
+  }
+  return list;
+}
+
+async function phase(fx: Fixture, connections: number, label: string): Promise<void> {
+  resetStats();
+  const result = await autocannon({
+    url: BASE,
+    connections,
+    pipelining: 1,
+    duration: DURATION_S,
+    amount: AMOUNT,
+    timeout: TIMEOUT_S,
+    requests: requests(fx),
+  });
+  const seconds = result.duration;
+  console.log(`\n[load] ${label}: ${connections} clients, ${seconds.toFixed(1)} s, ${result.requests.total} requests, ${(result.requests.total / seconds).toFixed(1)} req/s; non-2xx ${result.non2xx} (409 on save ${saved409Phase()}), socket errors ${result.errors}, timeouts ${result.timeouts}`);
+  console.log('kind       n      p50 ms   p95 ms   p99 ms   answers');
+  for (const k of KINDS) {
+    const s = stats[k];
+    if (s.ms.length === 0) continue;
+    const sorted = [...s.ms].sort((a, b) => a - b);
+    const answers = [...s.status.entries()].sort((a, b) => a[0] - b[0]).map(([st, n]) => `${st}×${n}`).join(' ');
+    console.log(`${k.padEnd(9)} ${String(s.ms.length).padStart(6)} ${pct(sorted, 50).toFixed(1).padStart(8)} ${pct(sorted, 95).toFixed(1).padStart(8)} ${pct(sorted, 99).toFixed(1).padStart(8)}   ${answers}`);
+  }
+}
+let last409 = 0;
+function saved409Phase(): number {
+  const n = saved409 - last409;
+  last409 = saved409;
+  return n;
+}
+
+async function main(): Promise<void> {
+  if (!EXTERNAL_URL) await startServer();
+  else await waitHealthy(10_000);
+  try {
+    const fx = await setup();
+    resetStats();
+    await autocannon({ url: BASE, connections: 5, pipelining: 1, duration: 3, requests: requests(fx), timeout: TIMEOUT_S });
+    console.log('[load] warm-up: 5 clients for 3 s (not reported)');
+    saved409Phase();
+    for (const n of CLIENTS) await phase(fx, n, `phase ${n}`);
+    const [[row]] = (await db().sequelize.query('SELECT count(*)::int AS n FROM design_revisions WHERE design_id IN (:ids) AND number > 2', { replacements: { ids: fx.designIds } })) as [[{ n: number }], unknown];
+    const [[latest]] = (await db().sequelize.query('SELECT sum(latest_revision - 2)::int AS n FROM designs WHERE id IN (:ids)', { replacements: { ids: fx.designIds } })) as [[{ n: number }], unknown];
+    const okLine = row.n === saved201 && latest.n === saved201;
+    console.log(`\n[load] saves answered 201: ${saved201}; revisions stored beyond the set-up: ${row.n}; latest-revision counters: ${latest.n} → ${okLine ? 'equal' : 'MISMATCH'}`);
+    if (!okLine) process.exitCode = 1;
+  } finally {
+    if (server) server.kill('SIGTERM');
+    await closeDb();
+  }
+}
+
+main().catch((e: unknown) => {
+  console.error(e);
+  if (server) server.kill('SIGTERM');
+  process.exit(1);
+});
