@@ -9,6 +9,7 @@ import type { DesignDetailDto } from '@/lib/api/contract';
 import { ApiError, formError } from '@/lib/client/api';
 import { formatDateTime, statusLabel } from '@/lib/client/format';
 import { useDesign, useForkDesign, useMe, useRevision, useRevisions, useUpdateDesign } from '@/lib/client/hooks';
+import { AnalysesPanel } from '@/components/analyses/analyses-panel';
 import { BenchPanel } from '@/components/bench/bench-panel';
 import { CommentsPanel } from '@/components/comments/comments-panel';
 import { DesignEditor } from '@/components/editor/design-editor';
@@ -233,7 +234,7 @@ export function DesignRoot({ designId }: { designId: string }) {
 
           <ReviewPanel design={d} userId={userId} role={role} focusReviewId={focusReviewId} />
 
-          {/* lane analyses: sweeps and tolerance spreads panel mounts here */}
+          <AnalysesPanel designId={d.id} revision={selected} userId={userId} isOwner={role === 'owner'} />
 
           <BenchPanel designId={d.id} revision={selected} canUpload={p.edit} />
 
