@@ -34,6 +34,7 @@ const FILES = fs
 let f: Fixtures;
 let designId: string;
 let designRevisions = 0;
+let totalCalls = 0;
 
 interface Snapshot {
   revisions: string;
@@ -243,11 +244,13 @@ describe(`every route handler under hostile input (seed ${FUZZ_SEED})`, () => {
     } finally {
       errorLog.mockRestore();
     }
+    totalCalls += calls;
     if (problems.length) throw new Error(`[fuzz seed ${FUZZ_SEED}] ${problems.length} of ${calls} calls failed:\n${problems.join('\n')}`);
     expect(calls).toBeGreaterThan(0);
   }, 180_000);
 
   it('left the fixture design, its revisions and the team exactly as they were', async () => {
+    console.info(`[fuzz] ${FILES.length} route files, ${totalCalls} hostile calls`);
     expect(await snapshot()).toEqual(before);
   });
 });
