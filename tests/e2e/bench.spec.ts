@@ -55,7 +55,8 @@ test('the demo designer uploads a load curve, maps its columns and sees it over 
     expect(pct).toBeLessThan(-0.5);
     expect(pct).toBeGreaterThan(-2);
   }
-  await expect(rows.first()).toContainText('1501.2');
+  // shown in kV (the largest value is above 1 kV): 1501.2 V measured at no load
+  await expect(rows.first().locator('td').nth(2)).toHaveText('1.5012');
   await expect(view.getByTestId('bench-summary-slope-model')).toContainText('kΩ');
 
   // a broken file: the mapping form opens, saving lists each bad line with its reason
