@@ -261,7 +261,7 @@ function DatasetView({ designId, datasetId, revision, onDeleted }: { designId: s
         <div>
           <h3 className="text-sm font-semibold text-ink-50">{d.dataset.name}</h3>
           <p className="text-xs text-ink-400">
-            {d.dataset.kind === 'loadCurve' ? 'Load curve' : 'Ripple capture'} · {d.dataset.pointCount} points from {d.dataset.fileName} · uploaded by {d.dataset.uploadedBy.name} {formatDateTime(d.dataset.createdAt)} · compared with r{d.revision}
+            {d.dataset.kind === 'loadCurve' ? 'Load curve' : 'Ripple capture'} · {d.dataset.pointCount} points from {d.dataset.fileName} · uploaded by {d.dataset.uploadedBy.name} on {formatDateTime(d.dataset.createdAt)} · compared with r{d.revision}
             {d.revision !== d.dataset.revision ? ` (uploaded against r${d.dataset.revision})` : ''}
           </p>
           {d.dataset.notes ? <p className="mt-1 text-xs text-ink-300">{d.dataset.notes}</p> : null}

@@ -25,7 +25,7 @@ export function BenchPlot({ comparison }: { comparison: Comparison }) {
             <XAxis type="number" dataKey="x" domain={['dataMin', 'dataMax']} tick={axisTick} tickFormatter={fmt} stroke="#46545f" label={{ value: xLabel, position: 'insideBottom', offset: -10, fill: '#7d8b96', fontSize: 10 }} />
             <YAxis type="number" dataKey="y" domain={['auto', 'auto']} tick={axisTick} tickFormatter={fmt} stroke="#46545f" width={60} label={{ value: yLabel, angle: -90, position: 'insideLeft', fill: '#7d8b96', fontSize: 10 }} />
             <Tooltip contentStyle={{ background: '#141a1f', border: '1px solid #46545f', fontSize: 11 }} formatter={(v, name) => [`${fmt(Number(v))} ${s.y.unit}`, name]} labelFormatter={(x) => `${fmt(Number(x))} ${s.x.unit}`} />
-            <Legend wrapperStyle={{ fontSize: 11, color: '#c9d1d7' }} />
+            <Legend verticalAlign="top" height={22} wrapperStyle={{ fontSize: 11, color: '#c9d1d7' }} />
             <Line data={s.model} dataKey="y" name="model" type="linear" dot={false} isAnimationActive={false} stroke={MODEL} strokeWidth={1.5} />
             <Scatter data={s.measured} dataKey="y" name="measured" fill={MEASURED} isAnimationActive={false} shape="circle" />
           </ComposedChart>
