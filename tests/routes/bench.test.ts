@@ -233,6 +233,19 @@ describe('bad uploads store nothing', () => {
     expect(await stored(designId)).toEqual({ rows: 0, objects: 0 });
   });
 
+  it('more than 20 000 rows: 422 naming the first line past the limit; an archived design: 409', async () => {
+    const rows = Array.from({ length: 20_001 }, (_, k) => `${(k * 1e-5).toFixed(5)},11.9`).join('\n');
+    const r = await upload(designId, f.users.designer, form(new TextEncoder().encode(`I (mA),Vout (kV)\n${rows}\n`), fields()));
+    expect(r.status).toBe(422);
+    expect(r.body.error?.lines).toEqual([{ line: 20_002, reason: expect.stringMatching(/more than 20 000 data rows/) }]);
+    const archived = await newDesign();
+    await db().models.Design.update({ archivedAt: new Date() }, { where: { id: archived } });
+    const a = await upload(archived, f.users.owner, form(fixture('load-curve-good.csv'), fields()));
+    expect(a.status).toBe(409);
+    expect(await stored(designId)).toEqual({ rows: 0, objects: 0 });
+    expect(await stored(archived)).toEqual({ rows: 0, objects: 0 });
+  });
+
   it('roles: reviewer and viewer 403, outsider 404, signed out 401 — and nothing stored', async () => {
     for (const [who, status] of [['reviewer', 403], ['viewer', 403], ['outsider', 404]] as const) {
       expect((await upload(designId, f.users[who], form(fixture('load-curve-good.csv'), fields()))).status).toBe(status);
