@@ -1,0 +1,132 @@
+/**
+ * Exports of one stored design revision: the BOM (CSV), the SPICE-subset netlist, the design JSON
+ * and the design report (PDF, drawn here on the server).
+ *
+ * Who may download: whoever may read the design (lib/data/designs.ts `loadReadable`: every member
+ * of its team for a team design, its author alone for a private one); anyone else gets 404, as if
+ * the design did not exist. Every role that reads may download every format (viewers included):
+ * an export shows nothing the design page does not.
+ *
+ * What is read besides the revision: the team's name and derating policy, the team parts library
+ * entries the revision's parts are bound to (number, maker, unit cost, currency) and the
+ * design's approvals. The BOM and the report solve the revision (lib/exports/solve.ts, 15 s
+ * budget); a failed solve still gives a BOM (without the stress columns) and a report that says
+ * why it has no results.
+ */
+import 'server-only';
+import { QueryTypes } from 'sequelize';
+import type { DesignDocument } from '../circuit/document/schema';
+import { designateParts } from '../circuit/document/designators';
+import { db } from '../db';
+import { AppError, notFound } from '../errors';
+import { buildBom, bomCsv, type LibraryPartInfo } from '../exports/bom';
+import { CONTENT_TYPES, designJsonText, exportFileName, netlistWithDesignators, type ExportFormat } from '../exports/files';
+import { buildReportModel, type ReportApproval } from '../exports/report';
+import { renderReportPdf } from '../exports/report-pdf';
+import { solveForExport } from '../exports/solve';
+import { loadCaller } from './access';
+import { getRevisionOf, loadReadable } from './designs';
+import { userDto } from './dto';
+
+const UUID_RE = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/** One export ready to send: bytes or text, its content type and file name. */
+export interface ExportFile {
+  body: Uint8Array | string;
+  contentType: string;
+  fileName: string;
+}
+
+async function tableHas(table: string, column: string): Promise<boolean> {
+  const rows = await db().sequelize.query<{ n: number }>(
+    `SELECT count(*)::int AS n FROM information_schema.columns WHERE table_schema = current_schema() AND table_name = :table AND column_name = :column`,
+    { type: QueryTypes.SELECT, replacements: { table, column } },
+  );
+  return (rows[0]?.n ?? 0) > 0;
+}
+
+/**
+ * The team library parts behind `ids` (only the team's own parts; ids that are not the
+ * library's are left out, and a BOM row then keeps the id as its part number).
+ */
+export async function libraryPartsFor(teamId: string, ids: string[]): Promise<Map<string, LibraryPartInfo>> {
+  const wanted = [...new Set(ids.filter((id) => UUID_RE.test(id)))];
+  const out = new Map<string, LibraryPartInfo>();
+  if (wanted.length === 0 || !(await tableHas('parts', 'part_number'))) return out;
+  const rows = await db().sequelize.query<{ id: string; part_number: string; maker: string | null; unit_cost: string | number | null; currency: string | null }>(
+    `SELECT id, part_number, maker, unit_cost, currency FROM parts WHERE team_id = :teamId AND id IN (:ids)`,
+    { type: QueryTypes.SELECT, replacements: { teamId, ids: wanted } },
+  );
+  for (const r of rows) {
+    const cost = r.unit_cost === null || r.unit_cost === undefined ? null : Number(r.unit_cost);
+    out.set(r.id, { id: r.id, partNumber: r.part_number, maker: r.maker ?? '', unitCost: cost !== null && Number.isFinite(cost) ? cost : null, currency: r.currency ?? '' });
+  }
+  return out;
+}
+
+/** The team's derating policy (a fraction), or null when it has none. */
+export async function teamDeratingOf(teamId: string): Promise<number | null> {
+  if (!(await tableHas('teams', 'derating_fraction'))) return null;
+  const rows = await db().sequelize.query<{ f: string | number | null }>(`SELECT derating_fraction AS f FROM teams WHERE id = :teamId`, { type: QueryTypes.SELECT, replacements: { teamId } });
+  const f = rows[0]?.f;
+  const n = f === null || f === undefined ? NaN : Number(f);
+  return Number.isFinite(n) ? n : null;
+}
+
+function boundIds(doc: DesignDocument): string[] {
+  return designateParts(doc)
+    .map((p) => p.spec.partId)
+    .filter((id): id is string => typeof id === 'string' && id.length > 0);
+}
+
+/** Every approval of a design, newest first, as the report prints them. */
+async function approvalsOf(designId: string): Promise<ReportApproval[]> {
+  const { Approval, User } = db().models;
+  const rows = await Approval.findAll({ where: { designId }, include: [{ model: User, as: 'approvedBy' }], order: [['createdAt', 'DESC']] });
+  return rows.map((a) => ({ revision: a.revision, approvedBy: userDto(a.approvedBy).name, approvedAt: a.createdAt.toISOString(), note: a.note }));
+}
+
+/**
+ * Export revision `number` (from the path: digits only, else 404) of a design the caller may read
+ * in `format`. A netlist of a drawing that does not compile answers 422 with the compiler's reason.
+ */
+export async function exportRevision(userId: string, designId: string, number: string, format: ExportFormat): Promise<ExportFile> {
+  if (!/^[1-9][0-9]{0,8}$/.test(number)) throw notFound('revision');
+  const caller = await loadCaller(userId);
+  const design = await loadReadable(caller, designId);
+  const revision = await getRevisionOf(design, Number(number));
+  const doc = revision.document;
+  const fileName = exportFileName(design.title, revision.number, format);
+  const contentType = CONTENT_TYPES[format];
+  if (format === 'json') return { body: designJsonText(doc), contentType, fileName };
+  if (format === 'netlist') {
+    const net = netlistWithDesignators(doc, `${design.title} r${revision.number}`);
+    if (!net.ok) throw new AppError('invalid', `the drawing of r${revision.number} does not compile, so it has no netlist: ${net.reason}`, { field: 'format' });
+    return { body: net.text, contentType, fileName };
+  }
+  const [library, teamDerating] = await Promise.all([libraryPartsFor(design.teamId, boundIds(doc)), teamDeratingOf(design.teamId)]);
+  if (format === 'bom') {
+    const solve = solveForExport(doc, teamDerating, { warmup: false });
+    return { body: bomCsv(buildBom(doc, library, solve.ok ? solve.stress : null)), contentType, fileName };
+  }
+  const [team, approvals] = await Promise.all([db().models.Team.findByPk(design.teamId), approvalsOf(design.id)]);
+  const solve = solveForExport(doc, teamDerating);
+  const model = buildReportModel(
+    {
+      designTitle: design.title,
+      teamName: team?.name ?? '',
+      revision: revision.number,
+      revisionAuthor: revision.author.name,
+      revisionCreatedAt: revision.createdAt,
+      revisionMessage: revision.message,
+      designStatus: design.status.replace(/_/g, ' '),
+      document: doc,
+      teamDerating,
+      approvals,
+      library,
+      generatedAt: new Date().toISOString(),
+    },
+    solve,
+  );
+  return { body: await renderReportPdf(model, doc), contentType, fileName };
+}
