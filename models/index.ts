@@ -24,6 +24,8 @@ import { Analysis } from './analysis';
 import { BenchDataset } from './bench-dataset';
 // audit log
 import { AuditEvent } from './audit-event';
+// parts library
+import { Part } from './part';
 
 export { User, Account, Session, VerificationToken, SignInThrottle, Team, Membership, Invitation, Design, DesignRevision };
 // reviews and offers
@@ -36,6 +38,8 @@ export { Analysis };
 export { BenchDataset };
 // audit log
 export { AuditEvent };
+// parts library
+export { Part };
 
 /** The model classes, initialised. */
 export interface Models {
@@ -65,6 +69,8 @@ export interface Models {
   BenchDataset: typeof BenchDataset;
   // audit log
   AuditEvent: typeof AuditEvent;
+  // parts library
+  Part: typeof Part;
 }
 
 let boundTo: Sequelize | null = null;
@@ -83,6 +89,8 @@ export function initModels(sequelize: Sequelize): Models {
     ...{ BenchDataset },
     // audit log
     ...{ AuditEvent },
+    // parts library
+    ...{ Part },
   };
   if (boundTo === sequelize) return models;
   boundTo = sequelize;
