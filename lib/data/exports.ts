@@ -101,7 +101,7 @@ export async function exportRevision(userId: string, designId: string, number: s
   if (format === 'json') return { body: designJsonText(doc), contentType, fileName };
   if (format === 'netlist') {
     const net = netlistWithDesignators(doc, `${design.title} r${revision.number}`);
-    if (!net.ok) throw new AppError('invalid', `the drawing of r${revision.number} does not compile, so it has no netlist: ${net.reason}`, { field: 'format' });
+    if (!net.ok) throw new AppError('invalid', `the drawing of r${revision.number} does not compile, so it has no netlist: ${net.reason}`);
     return { body: net.text, contentType, fileName };
   }
   const [library, teamDerating] = await Promise.all([libraryPartsFor(design.teamId, boundIds(doc)), teamDeratingOf(design.teamId)]);
