@@ -323,7 +323,7 @@ function plot(pdf: Doc, series: Series, box: { x: number; y: number; w: number; 
   pdf.font('Helvetica-Bold').fontSize(8.5).fillColor(COLORS.ink).text(pdfText(labels.title), x, y, { width: w, lineBreak: false });
   const xs = series.x;
   const ys = series.y;
-  let xLo = Math.min(...xs);
+  const xLo = Math.min(...xs);
   let xHi = Math.max(...xs);
   let yLo = Math.min(...ys);
   let yHi = Math.max(...ys);
