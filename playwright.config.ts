@@ -42,8 +42,8 @@ export default defineConfig({
       env: serverEnv,
     },
     {
-      // One tsx process (it forwards Playwright's SIGTERM to its node child, gotcha G10).
-      command: 'node_modules/.bin/tsx scripts/worker.ts',
+      // One node process, so Playwright's SIGTERM reaches the worker itself (see scripts/worker.ts).
+      command: 'node --import tsx scripts/worker.ts',
       url: `http://127.0.0.1:${WORKER_PORT}/health`,
       reuseExistingServer: !process.env.CI,
       timeout: 60_000,

@@ -30,8 +30,9 @@ bash scripts/pg-up.sh "$KR_DB"
 npx tsx scripts/migrate.ts up
 npx tsx scripts/seed.ts
 fakes_pid="$(bash scripts/fakes-up.sh)"
-# The analysis worker: one tsx process (it forwards SIGTERM to its node child, gotcha G10).
-node_modules/.bin/tsx scripts/worker.ts >>"$KR_DATA/worker.log" 2>&1 &
+# The analysis worker as one node process (the tsx command line would SIGKILL a busy worker on
+# SIGTERM instead of letting it stop gracefully; see scripts/worker.ts).
+node --import tsx scripts/worker.ts >>"$KR_DATA/worker.log" 2>&1 &
 worker_pid=$!
 
 # A second copy may be running: take the next free port rather than fail.

@@ -1,6 +1,7 @@
 /**
- * The worker under faults, as separate processes (`npx tsx scripts/worker.ts`, each in its own
- * process group so kill -9 takes npx, tsx and node together):
+ * The worker under faults, as separate processes (`node --import tsx scripts/worker.ts`, one
+ * process each — as npm run worker, npm run app and the e2e start it; the `tsx` command line would
+ * relay a SIGTERM as a SIGKILL to a worker busy in a solve, see scripts/worker.ts):
  * - a run queued through the data layer while no worker runs, and the sending (web) side shut
  *   down before any worker starts, is done by a worker started afterwards — the job lives in
  *   PostgreSQL, not in the web process;
@@ -27,7 +28,7 @@ beforeAll(async () => {
   await db().sequelize.query('DROP SCHEMA IF EXISTS pgboss CASCADE');
 });
 afterEach(() => {
-  for (const c of children.splice(0)) if (c.exitCode === null && c.pid) try { process.kill(-c.pid, 'SIGKILL'); } catch { /* already gone */ }
+  for (const c of children.splice(0)) if (c.exitCode === null) c.kill('SIGKILL');
 });
 afterAll(async () => {
   await stopWebBoss();
@@ -40,11 +41,10 @@ interface Worker {
   exited: Promise<number | null>;
 }
 
-/** Start `npx tsx scripts/worker.ts` on this test database and wait for its "ready" line. */
+/** Start `node --import tsx scripts/worker.ts` on this test database and wait for its "ready" line. */
 async function startWorker(): Promise<Worker> {
-  const child = spawn('npx', ['tsx', 'scripts/worker.ts'], {
+  const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/worker.ts'], {
     cwd: process.cwd(),
-    detached: true,
     stdio: ['ignore', 'pipe', 'pipe'],
     env: { ...process.env, DATABASE_URL: process.env.DATABASE_URL, NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET, ANALYSIS_STALE_SECONDS: '3', DB_POOL_MAX: '3' },
   });
@@ -52,7 +52,6 @@ async function startWorker(): Promise<Worker> {
   let out = '';
   child.stdout!.on('data', (d: Buffer) => (out += d.toString()));
   child.stderr!.on('data', (d: Buffer) => (out += d.toString()));
-  // 'close': every process of the group that holds the pipes (npx, tsx, node) has gone.
   const exited = new Promise<number | null>((res) => child.on('close', (code) => res(code)));
   const t0 = Date.now();
   while (!/\] ready/.test(out)) {
@@ -63,10 +62,10 @@ async function startWorker(): Promise<Worker> {
   return { child, output: () => out, exited };
 }
 
-/** SIGTERM to the worker's process group; the node process logs "stopped" and exits. */
+/** SIGTERM: the worker logs "stopped" and exits 0. */
 async function stopGracefully(w: Worker): Promise<void> {
-  process.kill(-w.child.pid!, 'SIGTERM');
-  await w.exited;
+  w.child.kill('SIGTERM');
+  expect(await w.exited).toBe(0);
   expect(w.output()).toMatch(/SIGTERM: stopping[\s\S]*\] stopped/);
 }
 
@@ -120,8 +119,8 @@ describe('worker faults', () => {
 
     const a = await startWorker();
     const before = await until(id, (r) => r.done_points >= 5);
-    process.kill(-a.child.pid!, 'SIGKILL');
-    await a.exited;
+    a.child.kill('SIGKILL');
+    expect(await a.exited).toBeNull();
     const atKill = await row(id);
     expect(atKill.status).toBe('running');
     expect(atKill.done_points).toBeLessThan(80);
