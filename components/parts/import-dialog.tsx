@@ -86,10 +86,21 @@ export function ImportDialog({ teamId, onClose }: { teamId: string; onClose: () 
   const done = report?.dryRun === false;
   return (
     <Modal open onClose={onClose} title="Import parts from CSV" testId="import-dialog" wide>
-      <p className="text-sm text-ink-200">
-        One part per row with a header line: <span className="font-mono text-xs">kind, partNumber, maker, …</span> and the values of its kind in SI units or engineering notation. A row whose part number already exists in the team replaces that part. Check
-        the file with a dry run first; nothing is saved until you import.
-      </p>
+      <div className="space-y-1 text-sm text-ink-200">
+        <p>
+          One part per row under a header line. <span className="font-mono text-xs">kind</span> and <span className="font-mono text-xs">part_number</span> are required; then{' '}
+          <span className="font-mono text-xs">description, maker, unit_cost, currency</span> and the values of the kind:
+        </p>
+        <ul className="list-disc pl-5 font-mono text-xs text-ink-100">
+          <li>capacitor: capacitance, tolerance, rated_voltage, esr, dielectric, size</li>
+          <li>diode: rated_piv, avg_current, surge_current, trr, is, n, rs, cjo, tt</li>
+          <li>resistor: resistance, power, rated_voltage, tolerance</li>
+        </ul>
+        <p>
+          Numbers in engineering notation (<span className="font-mono text-xs">10n</span>, <span className="font-mono text-xs">15kV</span>, <span className="font-mono text-xs">2.2meg</span>; write meg, not M). A row whose part number already exists in the
+          team replaces that part. Check the file with a dry run first; nothing is saved until you import.
+        </p>
+      </div>
       <div>
         <label htmlFor={fileId} className="mb-1 block text-sm font-medium text-ink-200">
           CSV file
