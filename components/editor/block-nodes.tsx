@@ -4,7 +4,10 @@
  * Each draws Kilorung's own symbols (components/editor/symbols.tsx) inside the block's size from
  * `blockSize`, and puts one handle on each port exactly at its `portAnchors` point, so the ports of
  * chained stages land on the same canvas points. Node data carries only plain values (the block,
- * its fault level, the parts over their derated limit); no functions.
+ * its fault level, the parts over their derated limit); no functions. Each part symbol shows its
+ * designator (lib/circuit/document/designators.ts), read from the editor's document: the map is
+ * computed once per document object and shared by every node, and a node re-renders only when
+ * one of its own designators changes.
  */
 import { memo, useEffect, type FocusEvent as ReactFocusEvent, type KeyboardEvent as ReactKeyboardEvent, type PointerEvent as ReactPointerEvent } from 'react';
 import { useStore } from 'zustand';
@@ -12,11 +15,37 @@ import { Handle, Position, useUpdateNodeInternals, type Node, type NodeProps, ty
 import { portsOf, type DesignBlock } from '@/lib/circuit/document/schema';
 import { blockSize, portAnchors, type PortAnchor } from '@/lib/circuit/document/geometry';
 import { portWords } from '@/lib/circuit/document/connect';
+import { designatorKey, designatorMap } from '@/lib/circuit/document/designators';
+import type { DesignDocument } from '@/lib/circuit/document/schema';
 import { formatSi } from '@/lib/client/format';
 import type { PortKey } from '@/lib/editor/types';
 import { BlockSvg, GroundGlyph, INK, Junction, Lead, LoadGlyph, PartOnSegment, SourceGlyph, type Pt } from './symbols';
 import { useHoverApi } from './hover-store';
-import { useEditorApi } from './store-context';
+import { useEditor, useEditorApi } from './store-context';
+
+const designatorCache = new WeakMap<DesignDocument, Map<string, string>>();
+
+/** Designators of the whole document (one computation per document object). */
+function designatorsOf(doc: DesignDocument): Map<string, string> {
+  let m = designatorCache.get(doc);
+  if (!m) {
+    m = designatorMap(doc);
+    designatorCache.set(doc, m);
+  }
+  return m;
+}
+
+/** The designators of one block's parts, by role, as a stable string (so the selector compares by value). */
+function useDesignators(blockId: string, roles: readonly string[]): Record<string, string> {
+  const joined = useEditor((s) => {
+    const m = designatorsOf(s.document);
+    return roles.map((r) => m.get(designatorKey(blockId, r)) ?? '').join(' ');
+  });
+  const list = joined.split(' ');
+  return Object.fromEntries(roles.map((r, i) => [r, list[i] ?? ''] as const).filter(([, d]) => d !== ''));
+}
+
+const STAGE_ROLES = ['pumpC', 'pump2C', 'smoothC', 'diodeA', 'diodeB', 'diodeC', 'diodeD'] as const;
 
 export interface BlockNodeData extends Record<string, unknown> {
   block: DesignBlock;
@@ -133,6 +162,7 @@ const pivLabel = (d: { ratedPivV?: number; partId?: string | null }) => d.partId
 
 function StageNodeView({ data, selected }: NodeProps<BlockNode>) {
   const block = data.block;
+  const des = useDesignators(block.id, STAGE_ROLES);
   if (block.kind !== 'stage') return null;
   const d = block.data;
   const { width, height } = blockSize(block);
@@ -154,27 +184,27 @@ function StageNodeView({ data, selected }: NodeProps<BlockNode>) {
       <BlockSvg width={width} height={height}>
         <Title text={/[+−-]/.test(block.label ?? '') ? (block.label ?? block.id) : `${block.label ?? block.id} ${neg ? '−' : '+'}`} x={width - 6} y={12} anchor="end" />
         {/* driven column */}
-        <PartOnSegment shape="capacitor" from={p.xIn} to={jx} label={capLabel(d.pumpC.capacitanceF)} labelSide={-1} fault={over.has('pumpC')} testId="sym-pumpC" />
+        <PartOnSegment shape="capacitor" from={p.xIn} to={jx} label={capLabel(d.pumpC.capacitanceF)} labelSide={-1} fault={over.has('pumpC')} testId="sym-pumpC" designator={des.pumpC} />
         <Lead points={[jx, p.xOut]} />
         {/* second driven column (full-wave) */}
         {full && j2 && d.pump2C ? (
           <>
-            <PartOnSegment shape="capacitor" from={p.x2In} to={j2} label={capLabel(d.pump2C.capacitanceF)} labelSide={-1} fault={over.has('pump2C')} testId="sym-pump2C" />
+            <PartOnSegment shape="capacitor" from={p.x2In} to={j2} label={capLabel(d.pump2C.capacitanceF)} labelSide={-1} fault={over.has('pump2C')} testId="sym-pump2C" designator={des.pump2C} />
             <Lead points={[j2, p.x2Out]} />
           </>
         ) : null}
         {/* smoothing column */}
         <Lead points={[p.yIn, ky]} />
-        <PartOnSegment shape="capacitor" from={ky} to={smoothEnd} label={capLabel(d.smoothC.capacitanceF)} labelSide={1} fault={over.has('smoothC')} testId="sym-smoothC" />
+        <PartOnSegment shape="capacitor" from={ky} to={smoothEnd} label={capLabel(d.smoothC.capacitanceF)} labelSide={1} fault={over.has('smoothC')} testId="sym-smoothC" designator={des.smoothC} />
         <Lead points={[smoothEnd, p.yOut]} />
         {/* diodes: A from the smoothing input to the driven output, B from the driven output to the smoothing output */}
         {/* Diode part names and ratings are in the hover card and the inspector: on the drawing they would crowd the capacitor values. */}
-        <PartOnSegment shape="diode" {...diode(ky, jx)} fault={over.has('diodeA')} testId="sym-diodeA" />
-        <PartOnSegment shape="diode" {...diode(jx, jy)} fault={over.has('diodeB')} testId="sym-diodeB" />
+        <PartOnSegment shape="diode" {...diode(ky, jx)} fault={over.has('diodeA')} testId="sym-diodeA" designator={des.diodeA} />
+        <PartOnSegment shape="diode" {...diode(jx, jy)} fault={over.has('diodeB')} testId="sym-diodeB" designator={des.diodeB} />
         {full && j2 && jy2 ? (
           <>
-            <PartOnSegment shape="diode" {...diode(ky, j2)} fault={over.has('diodeC')} testId="sym-diodeC" />
-            <PartOnSegment shape="diode" {...diode(j2, jy2)} fault={over.has('diodeD')} testId="sym-diodeD" />
+            <PartOnSegment shape="diode" {...diode(ky, j2)} fault={over.has('diodeC')} testId="sym-diodeC" designator={des.diodeC} />
+            <PartOnSegment shape="diode" {...diode(j2, jy2)} fault={over.has('diodeD')} testId="sym-diodeD" designator={des.diodeD} />
             <Junction at={j2} />
             <Junction at={jy2} />
           </>
@@ -281,15 +311,19 @@ function GroundNodeView({ data, selected }: NodeProps<BlockNode>) {
   );
 }
 
+const PART_ROLES = ['capacitor', 'diode', 'resistor'] as const;
+
 function PartNodeView({ data, selected }: NodeProps<BlockNode>) {
   const block = data.block;
+  const des = useDesignators(block.id, PART_ROLES);
+  const designator = des[block.kind];
   const { width, height } = blockSize(block);
   const p = anchorMap(block);
   const over = data.overRoles.length > 0 || data.fault === 'error';
   let part: React.ReactNode = null;
-  if (block.kind === 'capacitor') part = <PartOnSegment shape="capacitor" from={p.a} to={p.b} label={capLabel(block.data.capacitanceF)} labelSide={-1} fault={over} />;
-  else if (block.kind === 'resistor') part = <PartOnSegment shape="resistor" from={p.a} to={p.b} label={formatSi(block.data.resistanceOhm, 'Ω')} labelSide={-1} fault={over} />;
-  else if (block.kind === 'diode') part = <PartOnSegment shape="diode" from={p.anode} to={p.cathode} label={pivLabel(block.data)} labelSide={-1} fault={over} />;
+  if (block.kind === 'capacitor') part = <PartOnSegment shape="capacitor" from={p.a} to={p.b} label={capLabel(block.data.capacitanceF)} labelSide={-1} fault={over} designator={designator} />;
+  else if (block.kind === 'resistor') part = <PartOnSegment shape="resistor" from={p.a} to={p.b} label={formatSi(block.data.resistanceOhm, 'Ω')} labelSide={-1} fault={over} designator={designator} />;
+  else if (block.kind === 'diode') part = <PartOnSegment shape="diode" from={p.anode} to={p.cathode} label={pivLabel(block.data)} labelSide={-1} fault={over} designator={designator} />;
   return (
     <Frame block={block} data={data} selected={selected}>
       <BlockSvg width={width} height={height}>

@@ -51,7 +51,9 @@ function Body({ shape, color }: { shape: PartShape; color: string }) {
 
 /**
  * A part drawn from `from` to `to`. For a diode `from` is the anode. `label` sits at the side
- * given by `labelSide` (+1 / −1 perpendicular to the segment, counter-clockwise first).
+ * given by `labelSide` (+1 / −1 perpendicular to the segment, counter-clockwise first); the
+ * part's `designator` (C1, D3 … from lib/circuit/document/designators.ts) sits on the other side,
+ * in small result-teal text, with `data-testid="designator-<designator>"`.
  */
 export function PartOnSegment({
   shape,
@@ -61,6 +63,7 @@ export function PartOnSegment({
   labelSide = 1,
   fault = false,
   testId,
+  designator,
 }: {
   shape: PartShape;
   from: Pt;
@@ -69,6 +72,7 @@ export function PartOnSegment({
   labelSide?: 1 | -1;
   fault?: boolean;
   testId?: string;
+  designator?: string;
 }) {
   const dx = to.x - from.x;
   const dy = to.y - from.y;
@@ -85,6 +89,11 @@ export function PartOnSegment({
   const lx = mx + nx * off * labelSide;
   const ly = my + ny * off * labelSide;
   const anchor = Math.abs(nx) < 0.3 ? 'middle' : nx * labelSide > 0 ? 'start' : 'end';
+  // the designator on the side away from the value label, a little closer to the body
+  const doff = shape === 'resistor' ? 12 : 15;
+  const dx2 = mx - nx * doff * labelSide;
+  const dy2 = my - ny * doff * labelSide;
+  const danchor = Math.abs(nx) < 0.3 ? 'middle' : nx * labelSide > 0 ? 'end' : 'start';
   return (
     <g data-testid={testId}>
       <g transform={`translate(${mx} ${my}) rotate(${deg})`}>
@@ -92,6 +101,11 @@ export function PartOnSegment({
         <line x1={s} y1={0} x2={len / 2} y2={0} stroke={INK.lead} strokeWidth={1.6} />
         <Body shape={shape} color={color} />
       </g>
+      {designator ? (
+        <text x={dx2} y={dy2} dy="0.35em" textAnchor={danchor} fontSize={8.5} fontWeight={600} fill={INK.result} data-testid={`designator-${designator}`} data-designator={designator}>
+          {designator}
+        </text>
+      ) : null}
       {label ? (
         <text x={lx} y={ly} dy="0.35em" textAnchor={anchor} fontSize={10.5} fill={INK.text} className="tabular-nums">
           {label}
