@@ -13,6 +13,7 @@ import { AnalysesPanel } from '@/components/analyses/analyses-panel';
 import { BenchPanel } from '@/components/bench/bench-panel';
 import { CommentsPanel } from '@/components/comments/comments-panel';
 import { DesignEditor } from '@/components/editor/design-editor';
+import { DownloadsPanel } from '@/components/exports/downloads-panel';
 import { DocumentSummaryView } from './document-summary-view';
 import { LineagePanel } from './lineage-panel';
 import { ReviewPanel } from './review-panel';
@@ -250,7 +251,7 @@ export function DesignRoot({ designId }: { designId: string }) {
             <Revisions designId={designId} latest={d.latestRevision} selected={selected} onSelect={setChosen} />
           </Panel>
           <LineagePanel design={d} userId={userId} />
-          {/* lane exports: downloads panel (BOM, netlist, JSON, report) mounts here */}
+          <DownloadsPanel designId={d.id} revision={selected} />
         </div>
       </div>
     </div>
