@@ -23,3 +23,4 @@ export * from './document/tray';
 export * from './document/connect';
 export * from './document/ladder-ops';
 export * from './document/from-netlist';
+export * from './devices/diode-fit';
