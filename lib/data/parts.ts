@@ -218,13 +218,13 @@ export async function importParts(userId: string, teamId: string, body: { csv: s
   const { Part: P } = db().models;
   try {
     return await db().sequelize.transaction(async (transaction) => {
-      let created = 0;
       let updated = 0;
       const existing = new Map<string, Part>();
       if (read.rows.length > 0) {
         const rows = await P.findAll({ where: { teamId }, transaction, lock: transaction.LOCK.UPDATE });
         for (const r of rows) existing.set(r.partNumber.toLowerCase(), r);
       }
+      const fresh: ReturnType<typeof columnsOf>[] = [];
       for (const row of read.rows) {
         const old = existing.get(row.input.partNumber.toLowerCase());
         if (old) {
@@ -232,11 +232,15 @@ export async function importParts(userId: string, teamId: string, body: { csv: s
           old.changed('specs', true);
           await old.save({ transaction });
           updated++;
-        } else {
-          await P.create({ teamId, ...columnsOf(row.input), createdBy: userId }, { transaction });
-          created++;
-        }
+        } else fresh.push(columnsOf(row.input));
       }
+      for (let k = 0; k < fresh.length; k += 500) {
+        await P.bulkCreate(
+          fresh.slice(k, k + 500).map((c) => ({ teamId, ...c, createdBy: userId })),
+          { transaction },
+        );
+      }
+      const created = fresh.length;
       const report: PartImportReport = { created, updated, rejected: read.rejected, dryRun };
       if (dryRun) throw new DryRunRollback(report);
       if (created + updated > 0) {

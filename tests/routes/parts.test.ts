@@ -311,17 +311,16 @@ describe('CSV import', () => {
   it('a failure part-way through leaves nothing of the import (one transaction)', async () => {
     const t = `fail${Date.now().toString(36)}`;
     const existing = await create(cap(`${t}-C0`, { capacitanceF: 1e-9 }));
+    // line 2 replaces the existing part (done first), lines 3–5 are new parts (stored after)
     const rows = [0, 1, 2, 3].map((i) => `capacitor,${t}-C${i},import ${i},,,,${i + 1}n,10%,5kV,mica,,,,,,,`);
     const before = await partRows();
     const audits = await db().models.AuditEvent.count();
     const P = db().models.Part;
-    const real = P.create.bind(P);
     let calls = 0;
-    const spy = vi.spyOn(P, 'create').mockImplementation(((...args: Parameters<typeof P.create>) => {
+    const spy = vi.spyOn(P, 'bulkCreate').mockImplementation((() => {
       calls += 1;
-      if (calls === 3) return Promise.reject(new Error('simulated failure on the third new part'));
-      return real(...args);
-    }) as typeof P.create);
+      return Promise.reject(new Error('simulated failure while storing the new parts'));
+    }) as unknown as typeof P.bulkCreate);
     const errors = vi.spyOn(console, 'error').mockImplementation(() => undefined);
     try {
       const r = await importCsv([header, ...rows].join('\n'));
@@ -330,10 +329,25 @@ describe('CSV import', () => {
       spy.mockRestore();
       errors.mockRestore();
     }
-    expect(calls).toBe(3);
+    expect(calls).toBe(1);
     expect(await partRows()).toBe(before);
     expect(await db().models.AuditEvent.count()).toBe(audits);
+    // the replacement of line 2 was rolled back with the rest
     expect((await db().models.Part.findByPk(existing.id))?.description).toBe(existing.description);
+    expect((await db().models.Part.findByPk(existing.id))?.specs).toMatchObject({ capacitanceF: 1e-9 });
+  });
+
+  it('imports the largest file allowed (5000 rows) in one go', async () => {
+    const t = `big${Date.now().toString(36)}`;
+    const rows = Array.from({ length: 5000 }, (_, i) => `resistor,${t}-R${i},bulk,,,,,,200,,,,,,,${i + 1}k,0.25`);
+    const before = await partRows();
+    const started = performance.now();
+    const r = await importCsv([header, ...rows].join('\n'));
+    const ms = performance.now() - started;
+    expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(200);
+    expect(r.body).toMatchObject({ created: 5000, updated: 0, rejected: [] });
+    expect(await partRows()).toBe(before + 5000);
+    expect(ms).toBeLessThan(20_000);
   });
 });
 
