@@ -9,6 +9,7 @@ import { formatSi } from '@/lib/client/format';
 import { useCreatePart, useUpdatePart } from '@/lib/client/parts';
 import { readField } from '@/lib/editor/fields';
 import { DIELECTRICS, PART_KINDS, type PartDto, type PartKind } from '@/lib/parts/schema';
+import { DiodeFitForm } from './diode-fit-form';
 import { Modal } from './modal';
 import {
   DIELECTRIC_LABEL,
@@ -78,10 +79,12 @@ function Group({ title, children }: { title: string; children: ReactNode }) {
 /**
  * Create or edit one part. Values are typed in engineering notation and checked here with the
  * server's schema before sending; what the server still refuses is shown at the field it names.
+ * For a diode, the model can be fitted from two or three forward points read off the datasheet.
  */
 export function PartFormDialog({ teamId, part, initialKind = 'capacitor', onClose }: { teamId: string; part: PartDto | null; initialKind?: PartKind; onClose: () => void }) {
   const [state, setState] = useState<PartFormState>(() => (part ? partForm(part) : emptyPartForm(initialKind)));
   const [errors, setErrors] = useState<Record<string, string>>({});
+  const [fitOpen, setFitOpen] = useState(false);
   const create = useCreatePart(teamId);
   const update = useUpdatePart(teamId);
   const mutation = part ? update : create;
@@ -154,6 +157,21 @@ export function PartFormDialog({ teamId, part, initialKind = 'capacitor', onClos
               {model.map((f) => (
                 <SiField key={f.key} field={f} value={state.values[f.key] ?? ''} onChange={(v) => set(f.key, v)} error={err(f.key)} disabled={pending} />
               ))}
+              <div className="sm:col-span-2">
+                {fitOpen ? (
+                  <DiodeFitForm
+                    onUse={(fields) => {
+                      setState((s) => ({ ...s, values: { ...s.values, ...fields } }));
+                      setFitOpen(false);
+                    }}
+                    onCancel={() => setFitOpen(false)}
+                  />
+                ) : (
+                  <Button variant="secondary" onClick={() => setFitOpen(true)} data-testid="open-diode-fit">
+                    Fit IS, N, RS from the datasheet curve…
+                  </Button>
+                )}
+              </div>
             </Group>
           ) : null}
           <div className="grid gap-3 sm:grid-cols-3">
