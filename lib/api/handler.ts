@@ -66,7 +66,9 @@ export function isDatabaseUnavailable(e: unknown): boolean {
     const parent = (e as DatabaseError & { parent?: { code?: string; message?: string } }).parent;
     return UNAVAILABLE_SQLSTATE.test(parent?.code ?? '') || UNAVAILABLE_TEXT.test(parent?.message ?? e.message);
   }
-  return e instanceof Error && UNAVAILABLE_TEXT.test(e.message) && /connection|ECONN|EPIPE|database system/i.test(e.message);
+  // node-postgres used directly (not through Sequelize): only its own words, so that another
+  // service being down (mail, object store: ECONNREFUSED too) is not reported as the database
+  return e instanceof Error && /Connection terminated unexpectedly|not queryable|the database system is/i.test(e.message);
 }
 
 /** The JSON error response for `e` (an AppError, a ZodError, an unreachable database → 503, or anything else → 500). */

@@ -268,3 +268,30 @@ describe('a solve past its budget', () => {
     expect(during).toBeLessThan(300 + 3000 + alone);
   }, 60_000);
 });
+
+describe('what counts as "database unavailable" (lib/api/handler.ts)', () => {
+  it('Sequelize connection errors and PostgreSQL shutdown codes do; another service being down does not', async () => {
+    const { ConnectionRefusedError, ConnectionAcquireTimeoutError, DatabaseError } = await import('sequelize');
+    const { isDatabaseUnavailable, errorResponse } = await import('@/lib/api/handler');
+    const pgError = (code: string, message: string) => Object.assign(new Error(message), { code, sql: 'SELECT 1', parameters: [] });
+    expect(isDatabaseUnavailable(new ConnectionRefusedError(Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:5432'), { code: 'ECONNREFUSED' })))).toBe(true);
+    expect(isDatabaseUnavailable(new ConnectionAcquireTimeoutError(new Error('Operation timeout')))).toBe(true);
+    expect(isDatabaseUnavailable(new DatabaseError(pgError('57P01', 'terminating connection due to administrator command') as never))).toBe(true);
+    expect(isDatabaseUnavailable(new DatabaseError(pgError('57P03', 'the database system is starting up') as never))).toBe(true);
+    expect(isDatabaseUnavailable(new Error('Connection terminated unexpectedly'))).toBe(true);
+    expect(isDatabaseUnavailable(new DatabaseError(pgError('22P02', 'invalid input syntax for type uuid') as never))).toBe(false);
+    expect(isDatabaseUnavailable(new DatabaseError(pgError('40P01', 'deadlock detected') as never))).toBe(false);
+    expect(isDatabaseUnavailable(new Error('connect ECONNREFUSED 127.0.0.1:4569'))).toBe(false); // the object store
+    const spy = vi.spyOn(console, 'error').mockImplementation(() => undefined);
+    try {
+      expect(errorResponse(new Error('connect ECONNREFUSED 127.0.0.1:2525'), 'POST /api/x').status).toBe(500);
+      const down = errorResponse(new ConnectionRefusedError(new Error('refused')), 'POST /api/x');
+      expect(down.status).toBe(503);
+      expect(((await down.json()) as { error: { message: string } }).error.message).toBe(NOT_SAVED_RETRY);
+      const read = errorResponse(new ConnectionRefusedError(new Error('refused')), 'GET /api/x');
+      expect(((await read.json()) as { error: { message: string } }).error.message).toMatch(/could not reach its database/);
+    } finally {
+      spy.mockRestore();
+    }
+  });
+});
