@@ -7,14 +7,13 @@
  * the design did not exist. Every role that reads may download every format (viewers included):
  * an export shows nothing the design page does not.
  *
- * What is read besides the revision: the team's name and derating policy, the team parts library
- * entries the revision's parts are bound to (number, maker, unit cost, currency) and the
- * design's approvals. The BOM and the report solve the revision (lib/exports/solve.ts, 15 s
+ * What is read besides the revision: the team's name, its derating policy and the team parts
+ * library entries the revision's parts are bound to (number, maker, unit cost, currency), both
+ * through lib/data/parts.ts, and the design's approvals. The BOM and the report solve the revision (lib/exports/solve.ts, 15 s
  * budget); a failed solve still gives a BOM (without the stress columns) and a report that says
  * why it has no results.
  */
 import 'server-only';
-import { QueryTypes } from 'sequelize';
 import type { DesignDocument } from '../circuit/document/schema';
 import { designateParts } from '../circuit/document/designators';
 import { db } from '../db';
@@ -27,8 +26,7 @@ import { solveForExport } from '../exports/solve';
 import { loadCaller } from './access';
 import { getRevisionOf, loadReadable } from './designs';
 import { userDto } from './dto';
-
-const UUID_RE = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+import { listParts, teamDeratingFraction } from './parts';
 
 /** One export ready to send: bytes or text, its content type and file name. */
 export interface ExportFile {
@@ -37,40 +35,21 @@ export interface ExportFile {
   fileName: string;
 }
 
-async function tableHas(table: string, column: string): Promise<boolean> {
-  const rows = await db().sequelize.query<{ n: number }>(
-    `SELECT count(*)::int AS n FROM information_schema.columns WHERE table_schema = current_schema() AND table_name = :table AND column_name = :column`,
-    { type: QueryTypes.SELECT, replacements: { table, column } },
-  );
-  return (rows[0]?.n ?? 0) > 0;
-}
-
 /**
- * The team library parts behind `ids` (only the team's own parts; ids that are not the
- * library's are left out, and a BOM row then keeps the id as its part number).
+ * The team library parts behind `ids`, read through lib/data/parts.ts (the caller must be a
+ * member of the team, which reading the design already proved). Ids that are not the team's
+ * library parts are left out, and a BOM row then keeps the id as its part number.
  */
-export async function libraryPartsFor(teamId: string, ids: string[]): Promise<Map<string, LibraryPartInfo>> {
-  const wanted = [...new Set(ids.filter((id) => UUID_RE.test(id)))];
+export async function libraryPartsFor(userId: string, teamId: string, ids: string[]): Promise<Map<string, LibraryPartInfo>> {
+  const wanted = new Set(ids);
   const out = new Map<string, LibraryPartInfo>();
-  if (wanted.length === 0 || !(await tableHas('parts', 'part_number'))) return out;
-  const rows = await db().sequelize.query<{ id: string; part_number: string; maker: string | null; unit_cost: string | number | null; currency: string | null }>(
-    `SELECT id, part_number, maker, unit_cost, currency FROM parts WHERE team_id = :teamId AND id IN (:ids)`,
-    { type: QueryTypes.SELECT, replacements: { teamId, ids: wanted } },
-  );
-  for (const r of rows) {
-    const cost = r.unit_cost === null || r.unit_cost === undefined ? null : Number(r.unit_cost);
-    out.set(r.id, { id: r.id, partNumber: r.part_number, maker: r.maker ?? '', unitCost: cost !== null && Number.isFinite(cost) ? cost : null, currency: r.currency ?? '' });
+  if (wanted.size === 0) return out;
+  for (const p of await listParts(userId, teamId, {})) {
+    if (!wanted.has(p.id)) continue;
+    const cost = (p as { unitCost?: number }).unitCost;
+    out.set(p.id, { id: p.id, partNumber: p.partNumber, maker: p.maker ?? '', unitCost: typeof cost === 'number' && Number.isFinite(cost) ? cost : null, currency: p.currency ?? '' });
   }
   return out;
-}
-
-/** The team's derating policy (a fraction), or null when it has none. */
-export async function teamDeratingOf(teamId: string): Promise<number | null> {
-  if (!(await tableHas('teams', 'derating_fraction'))) return null;
-  const rows = await db().sequelize.query<{ f: string | number | null }>(`SELECT derating_fraction AS f FROM teams WHERE id = :teamId`, { type: QueryTypes.SELECT, replacements: { teamId } });
-  const f = rows[0]?.f;
-  const n = f === null || f === undefined ? NaN : Number(f);
-  return Number.isFinite(n) ? n : null;
 }
 
 function boundIds(doc: DesignDocument): string[] {
@@ -104,7 +83,7 @@ export async function exportRevision(userId: string, designId: string, number: s
     if (!net.ok) throw new AppError('invalid', `the drawing of r${revision.number} does not compile, so it has no netlist: ${net.reason}`);
     return { body: net.text, contentType, fileName };
   }
-  const [library, teamDerating] = await Promise.all([libraryPartsFor(design.teamId, boundIds(doc)), teamDeratingOf(design.teamId)]);
+  const [library, teamDerating] = await Promise.all([libraryPartsFor(userId, design.teamId, boundIds(doc)), teamDeratingFraction(design.teamId)]);
   if (format === 'bom') {
     const solve = solveForExport(doc, teamDerating, { warmup: false });
     return { body: bomCsv(buildBom(doc, library, solve.ok ? solve.stress : null)), contentType, fileName };

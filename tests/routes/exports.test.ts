@@ -17,7 +17,10 @@ import * as exportRoute from '@/app/api/designs/[designId]/revisions/[number]/ex
 import { compileDocument, designDocumentSchema, halfWaveStarter, parseNetlist, type DesignDocument } from '@/lib/circuit';
 import { designateParts } from '@/lib/circuit/document/designators';
 import { createDesign, saveRevision } from '@/lib/data/designs';
+import { createPart, setPartsPolicy } from '@/lib/data/parts';
 import { decideReview, requestReview } from '@/lib/data/reviews';
+import { bindCapacitor, bindDiode } from '@/lib/parts/binding';
+import { partInputSchema } from '@/lib/parts/schema';
 import { call, setupFixtures, teardown, type Fixtures, type FixtureUser } from './helpers';
 
 let f: Fixtures;
@@ -198,6 +201,49 @@ describe('report PDF', () => {
     const net = await get(f.users.viewer, 'netlist', designId, 3);
     expect(net.status).toBe(422);
     expect((net.body as { error: { message: string } }).error.message).toMatch(/does not compile/);
+  });
+});
+
+describe('team parts library and derating policy', () => {
+  it('groups by the bound library part with its number, maker and cost, and judges stress at the team policy', async () => {
+    const cap = await createPart(f.users.owner.id, f.teamId, partInputSchema.parse({ kind: 'capacitor', partNumber: 'TG-C10N-630', maker: 'Prairie Film, Ltd', unitCost: 0.85, currency: 'EUR', specs: { capacitanceF: 10e-9, tolerance: 0.05, ratedVoltageV: 630, dielectric: 'film-polypropylene' } }));
+    const dio = await createPart(f.users.owner.id, f.teamId, partInputSchema.parse({ kind: 'diode', partNumber: 'TG-R1K', maker: 'Quarry Semi', unitCost: 0.12, currency: 'EUR', specs: { ratedPivV: 1000, ratedAvgCurrentA: 1, model: { isA: 2.5e-9, n: 1.75, rsOhm: 0.05 } } }));
+    const d = biasLadder();
+    for (const b of d.blocks) {
+      if (b.kind !== 'stage') continue;
+      b.data.pumpC = bindCapacitor(b.data.pumpC, cap as never);
+      b.data.smoothC = bindCapacitor(b.data.smoothC, cap as never);
+      b.data.diodeA = bindDiode(b.data.diodeA, dio as never);
+    }
+    const { design } = await createDesign(f.users.designer.id, f.teamId, { title: 'Library ladder', visibility: 'team', document: d });
+    await setPartsPolicy(f.users.owner.id, f.teamId, { deratingFraction: 0.7 });
+    const rows = csvRows((await get(f.users.viewer, 'bom', design.id)).raw);
+    const h = rows[0];
+    const byNumber = Object.fromEntries(rows.slice(1, -1).map((r) => [r[h.indexOf('Part number')], r]));
+    expect(byNumber['TG-C10N-630'][h.indexOf('Designators')]).toBe('C1 C2 C3 C4 C5 C6');
+    expect(byNumber['TG-C10N-630'][h.indexOf('Maker')]).toBe('Prairie Film, Ltd');
+    expect(byNumber['TG-C10N-630'][h.indexOf('Tolerance')]).toBe('±5 %');
+    // 6 × 0.85 = 5.10 EUR
+    expect(byNumber['TG-C10N-630'][h.indexOf('Line cost')]).toBe('5.10');
+    // diode A of each stage bound (D1, D3, D5), diode B still the unbound generic part (D2, D4, D6)
+    expect(byNumber['TG-R1K'][h.indexOf('Designators')]).toBe('D1 D3 D5');
+    expect(byNumber['TG-R1K'][h.indexOf('Line cost')]).toBe('0.36');
+    expect(byNumber['generic-rect-1k'][h.indexOf('Designators')]).toBe('D2 D4 D6');
+    // at the team's 0.7: 0.7 × 630 V = 441 V allowed, and a ~498 V stress is over (negative margin)
+    expect(byNumber['TG-C10N-630'][h.indexOf('Worst stress')]).toMatch(/of 441 V allowed/);
+    expect(Number(byNumber['TG-C10N-630'][h.indexOf('Margin')])).toBeLessThan(0);
+    const total = rows[rows.length - 1];
+    expect(total.slice(-2)).toEqual(['5.46', 'EUR']);
+    // the report's per-part table uses the same policy and names the library part
+    const pdf = await get(f.users.viewer, 'pdf', design.id);
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'kr-report-'));
+    fs.writeFileSync(path.join(dir, 'r.pdf'), pdf.raw);
+    const text = execFileSync('pdftotext', ['-layout', path.join(dir, 'r.pdf'), '-'], { encoding: 'utf8' });
+    fs.rmSync(dir, { recursive: true, force: true });
+    expect(text).toMatch(/C1\s+Stage 1 · pumping C \(TG-C10N-630\)\s+voltage\s+2\d\d V\s+630 V\s+441 V\s+\d+\.\d %\s+OK/);
+    expect(text).toMatch(/C2\s+Stage 1 · smoothing C \(TG-C10N-630\)\s+voltage\s+4\d\d V\s+630 V\s+441 V\s+-\d+\.\d %\s+OVER/);
+    expect(text).toMatch(/70 % of their ratings \(the team's derating policy\)/);
+    await setPartsPolicy(f.users.owner.id, f.teamId, { deratingFraction: 0.8 });
   });
 });
 
