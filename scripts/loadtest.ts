@@ -25,6 +25,7 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createRequire } from 'node:module';
+import os from 'node:os';
 import { encode } from 'next-auth/jwt';
 import { closeDb, db } from '../lib/db';
 import { hashPassword } from '../lib/auth/password';
@@ -311,7 +312,8 @@ async function phase(fx: Fixture, connections: number, label: string): Promise<v
     requests: requests(fx),
   });
   const seconds = result.duration;
-  console.log(`\n[load] ${label}: ${connections} clients, ${seconds.toFixed(1)} s, ${result.requests.total} requests, ${(result.requests.total / seconds).toFixed(1)} req/s; non-2xx ${result.non2xx} (409 on save ${saved409Phase()}), socket errors ${result.errors}, timeouts ${result.timeouts}`);
+  console.log(`\n[load] machine: ${os.cpus().length} cores, load average ${os.loadavg().map((l) => l.toFixed(1)).join(' / ')} (1/5/15 min) after the phase`);
+  console.log(`[load] ${label}: ${connections} clients, ${seconds.toFixed(1)} s, ${result.requests.total} requests, ${(result.requests.total / seconds).toFixed(1)} req/s; non-2xx ${result.non2xx} (409 on save ${saved409Phase()}), socket errors ${result.errors}, timeouts ${result.timeouts}`);
   console.log('kind       n      p50 ms   p95 ms   p99 ms   answers');
   for (const k of KINDS) {
     const s = stats[k];
