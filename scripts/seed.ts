@@ -15,6 +15,7 @@ import { compileDocument } from '../lib/circuit/compile/compile';
 import type { CommentAnchor, Role } from '../lib/api/contract';
 import type { Transaction } from 'sequelize';
 import { seedBench } from './seed-bench';
+import { seedParts } from './seed-parts';
 
 /** The demo password of every seeded person (printed by `npm run app`, written in the README). */
 export const DEMO_PASSWORD = 'kilorung-demo-1';
@@ -273,6 +274,8 @@ async function seed(): Promise<void> {
     created.collaboration = await seedCollaboration(transaction, revisionTimes);
     const benchMade = await seedBench(transaction, { designId: id(3, 2), revision: 2, uploadedById: userId('dev') });
     if (benchMade) console.log(`[seed] created ${benchMade} bench dataset(s) (invented demo data)`);
+    const partsMade = await seedParts(transaction, { teamId: TEAMS[0].id, createdBy: userId('dev') });
+    if (partsMade) console.log(`[seed] created ${partsMade} library part(s) (invented makers and part numbers)`);
   });
   console.log(`[seed] created ${created.users} user(s), ${created.teams} team(s), ${created.designs} design(s), ${created.collaboration} review(s) and comment(s) (existing rows left as they were)`);
   console.log(`[seed] demo sign-ins (password for all: ${DEMO_PASSWORD}):`);

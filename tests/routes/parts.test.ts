@@ -17,7 +17,7 @@ import { db } from '@/lib/db';
 import { env } from '@/lib/env';
 import { getObject, storageClient } from '@/lib/storage';
 import { MAX_DATASHEET_BYTES, type PartDto, type PartImportReport, type PartInputRaw } from '@/lib/parts/schema';
-import { call, setupFixtures, teardown, type Fixtures, type FixtureUser } from './helpers';
+import { addMember, call, setupFixtures, teardown, type Fixtures, type FixtureUser } from './helpers';
 
 let f: Fixtures;
 beforeAll(async () => {
@@ -437,5 +437,38 @@ describe('derating policy', () => {
     expect(other.body.policy.deratingFraction).toBe(0.8);
     const audit = await db().models.AuditEvent.findAll({ where: { teamId: f.teamId, action: 'part.policy_changed' } });
     expect(audit.at(-1)?.summary).toMatchObject({ deratingFraction: 0.6, was: 0.8 });
+  });
+});
+
+describe('demo seed (scripts/seed-parts.ts)', () => {
+  it('creates the invented library once with the parts the e2e relies on, a readable datasheet PDF, and policy 0.8', async () => {
+    const { seedParts, demoParts, DEMO_DATASHEET_PART } = await import('@/scripts/seed-parts');
+    const team = await db().models.Team.create({ name: 'Seed Check Instruments' });
+    await addMember(team.id, f.users.owner.id, 'owner');
+    const run = () => db().sequelize.transaction((t) => seedParts(t, { teamId: team.id, createdBy: f.users.designer.id }));
+    // fixed ids are global: clear any from an earlier run in this database
+    await db().models.Part.destroy({ where: { id: demoParts().map((d) => d.id) } });
+    expect(await run()).toBe(demoParts().length);
+    expect(await run()).toBe(0);
+    const parts = await db().models.Part.findAll({ where: { teamId: team.id } });
+    const byKind = (k: string) => parts.filter((p) => p.kind === k).length;
+    expect([byKind('capacitor'), byKind('diode'), byKind('resistor')]).toEqual([6, 4, 3]);
+    // the bias ladder's own rectifier (1 kV) and a bleeder-grade HV resistor are in the library
+    expect(parts.find((p) => p.partNumber === 'TGD-1K0-1A')?.specs).toMatchObject({ ratedPivV: 1000, model: { isA: 2.5e-9, n: 1.75, rsOhm: 0.05 } });
+    expect(parts.some((p) => p.kind === 'resistor' && (p.specs as { resistanceOhm: number; ratedVoltageV: number }).resistanceOhm >= 100e6 && (p.specs as { ratedVoltageV: number }).ratedVoltageV >= 10_000)).toBe(true);
+    const sheet = parts.find((p) => p.partNumber === DEMO_DATASHEET_PART)!;
+    expect(sheet.datasheetKey).toMatch(new RegExp(`^teams/${team.id}/parts/${sheet.id}/datasheet-[0-9a-f-]{36}\\.pdf$`));
+    const got = await call(datasheet.GET, `/api/parts/${sheet.id}/datasheet`, { params: { partId: sheet.id }, as: f.users.owner });
+    expect(got.status).toBe(200);
+    expect(new TextDecoder().decode(got.raw.subarray(0, 5))).toBe('%PDF-');
+    expect(got.raw.byteLength).toBe(sheet.datasheetSize);
+    const pol = await call<{ policy: { deratingFraction: number } }>(policy.GET, `/api/teams/${team.id}/parts-policy`, { params: { teamId: team.id }, as: f.users.owner });
+    expect(pol.body.policy.deratingFraction).toBe(0.8);
+    // the fitted 12 kV stack reproduces the sheet's forward points (4 significant digits kept)
+    const { diodeForwardVoltage } = await import('@/lib/circuit/devices/diode-fit');
+    const { DEMO_FORWARD_POINTS } = await import('@/scripts/seed-parts');
+    const model = (sheet.specs as { model: { isA: number; n: number; rsOhm: number } }).model;
+    for (const p of DEMO_FORWARD_POINTS) expect(Math.abs(diodeForwardVoltage(model, p.currentA) - p.voltageV)).toBeLessThan(0.01);
+    await db().models.Part.destroy({ where: { teamId: team.id } });
   });
 });
