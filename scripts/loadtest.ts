@@ -21,7 +21,7 @@
  *    be equal; the exit code is 1 when they are not).
  *
  * Options: --url URL --port N (default $E2E_PORT or 3716) --clients 50,200 --duration 20 --amount 40000
- *          --designs 20 --users N --no-solve --timeout 10 (s per request)
+ *          --designs 20 --users N --mix full,nosolve (default full; --no-solve = nosolve) --timeout 10 (s per request)
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createRequire } from 'node:module';
@@ -47,7 +47,8 @@ const DURATION_S = Number(opt('duration', '20'));
 const AMOUNT = Number(opt('amount', '40000'));
 const DESIGNS = Number(opt('designs', '20'));
 const USERS = Number(opt('users', String(Math.max(...CLIENTS))));
-const SOLVE = !flag('no-solve');
+/** Session mixes to run, each at every client count: `full` (with the compare solve) and/or `nosolve`. */
+const MIXES = (flag('no-solve') ? 'nosolve' : opt('mix', 'full')).split(',').filter((m) => m === 'full' || m === 'nosolve');
 const TIMEOUT_S = Number(opt('timeout', '10'));
 
 if (!process.env.DATABASE_URL) throw new Error('set DATABASE_URL (source scripts/env.sh) to the database the server uses');
@@ -207,7 +208,7 @@ async function setup(): Promise<Fixture> {
 let nextUser = 0;
 /** Save counter across the warm-up and every phase: each save's message is unique. */
 let seq = 0;
-function requests(fx: Fixture): AcRequestSpec[] {
+function requests(fx: Fixture, solve: boolean): AcRequestSpec[] {
   const designOf = (c: Ctx) => fx.designIds[c.design!];
   const start = (c: Ctx, kind: Kind) => {
     c.kind = kind;
@@ -288,7 +289,7 @@ function requests(fx: Fixture): AcRequestSpec[] {
     open,
     save,
   ];
-  if (SOLVE) {
+  if (solve) {
     list.push({
       setupRequest: (req, c) => {
         start(c, 'solve');
@@ -300,7 +301,7 @@ function requests(fx: Fixture): AcRequestSpec[] {
   return list;
 }
 
-async function phase(fx: Fixture, connections: number, label: string): Promise<void> {
+async function phase(fx: Fixture, connections: number, solve: boolean, label: string): Promise<void> {
   resetStats();
   const result = await autocannon({
     url: BASE,
@@ -309,7 +310,7 @@ async function phase(fx: Fixture, connections: number, label: string): Promise<v
     duration: DURATION_S,
     maxOverallRequests: AMOUNT, // (autocannon ignores duration when given `amount`)
     timeout: TIMEOUT_S,
-    requests: requests(fx),
+    requests: requests(fx, solve),
   });
   const seconds = result.duration;
   console.log(`\n[load] machine: ${os.cpus().length} cores, load average ${os.loadavg().map((l) => l.toFixed(1)).join(' / ')} (1/5/15 min) after the phase`);
@@ -336,10 +337,10 @@ async function main(): Promise<void> {
   try {
     const fx = await setup();
     resetStats();
-    await autocannon({ url: BASE, connections: 5, pipelining: 1, duration: 3, requests: requests(fx), timeout: TIMEOUT_S });
+    await autocannon({ url: BASE, connections: 5, pipelining: 1, duration: 3, requests: requests(fx, false), timeout: TIMEOUT_S });
     console.log('[load] warm-up: 5 clients for 3 s (not reported)');
     saved409Phase();
-    for (const n of CLIENTS) await phase(fx, n, `phase ${n}`);
+    for (const mix of MIXES) for (const n of CLIENTS) await phase(fx, n, mix === 'full', `${mix === 'full' ? 'full mix (with compare solves)' : 'mix without solves'}`);
     const [stored] = (await db().sequelize.query("SELECT message FROM design_revisions WHERE design_id IN (:ids) AND message LIKE 'load save %'", { replacements: { ids: fx.designIds } })) as [{ message: string }[], unknown];
     const [[latest]] = (await db().sequelize.query('SELECT sum(latest_revision - 2)::int AS n FROM designs WHERE id IN (:ids)', { replacements: { ids: fx.designIds } })) as [[{ n: number }], unknown];
     const storedSet = new Set(stored.map((r) => r.message));
@@ -347,7 +348,7 @@ async function main(): Promise<void> {
     const unanswered = stored.length - savedMessages.size + missing.length;
     // autocannon closes its sockets when a phase ends: a save in flight then may still commit on the
     // server although no client read its 201; those are counted apart, never as "believed saved"
-    const maxInFlight = Math.max(...CLIENTS) * (CLIENTS.length + 1);
+    const maxInFlight = Math.max(...CLIENTS) * (CLIENTS.length * MIXES.length + 1);
     console.log(
       `\n[load] saves answered 201: ${saved201}; of them missing in the database: ${missing.length}; revisions stored: ${stored.length} ` +
         `(latest-revision counters: ${latest.n}); stored without an answer read (in flight when a phase stopped): ${unanswered}`,
