@@ -74,6 +74,19 @@ class Writer {
     this.pdf.fillColor(opts.color ?? COLORS.ink).text(pdfText(text), this.left, this.y, { width: this.width });
     this.y = this.pdf.y + 3;
   }
+  /** Label–value pairs, one per line (the title block): the label in bold, the value wrapped beside it. */
+  fields(pairs: Array<[string, string]>) {
+    const labelW = 70;
+    for (const [label, value] of pairs) {
+      this.pdf.font('Helvetica').fontSize(9);
+      const h = this.pdf.heightOfString(pdfText(value), { width: this.width - labelW });
+      this.need(h + 2);
+      this.pdf.font('Helvetica-Bold').fontSize(9).fillColor(COLORS.muted).text(pdfText(label), this.left, this.y, { width: labelW, lineBreak: false });
+      this.pdf.font('Helvetica').fontSize(9).fillColor(COLORS.ink).text(pdfText(value), this.left + labelW, this.y, { width: this.width - labelW });
+      this.y = this.pdf.y + 1;
+    }
+    this.y += 4;
+  }
   /** A table; `widths` are fractions of the text width. Rows break across pages with the header repeated. */
   table(header: string[], rows: string[][], widths: number[], opts: { rowColor?: (i: number) => string | null } = {}) {
     const size = 7.5;
@@ -398,11 +411,14 @@ export function renderReportPdf(model: ReportModel, doc: DesignDocument): Promis
   pdf.font('Helvetica-Bold').fontSize(17).fillColor(COLORS.ink).text(pdfText(t.design), w.left, w.y, { width: w.width });
   w.y = pdf.y + 2;
   w.para(`Design report · revision r${t.revision}`, { size: 10, color: COLORS.copper, bold: true });
-  w.table(
-    ['Design', 'Team', 'Revision', 'Author', 'Date', 'Topology'],
-    [[t.design, t.team, `r${t.revision}${t.message ? ` — ${t.message}` : ''}`, t.author, fmtDate(t.date), t.topology]],
-    [0.2, 0.14, 0.22, 0.13, 0.14, 0.17],
-  );
+  w.fields([
+    ['Design', t.design],
+    ['Team', t.team],
+    ['Revision', `r${t.revision}${t.message ? ` — ${t.message}` : ''}`],
+    ['Author', t.author],
+    ['Date', fmtDate(t.date)],
+    ['Topology', t.topology],
+  ]);
   w.para(`Status: ${t.status}. Generated ${fmtDate(t.generatedAt)}. Parts judged at ${(model.derating.fraction * 100).toFixed(0)} % of their ratings (${model.derating.source === 'team' ? "the team's derating policy" : model.derating.source === 'design' ? "the design's own derating" : 'the default derating, common practice'}).`, { color: COLORS.muted, size: 8 });
   w.para('DANGER — HIGH VOLTAGE. This circuit stores a lethal charge. Read the safety section before building, testing or touching it.', { color: COLORS.hazard, bold: true, size: 9 });
 
