@@ -29,6 +29,7 @@ function stressRow(page: Page, element: string, quantity: string) {
 }
 
 test('a designer searches the team library, binds a lower-PIV diode and sees its stress margin go over', async ({ page }) => {
+  test.setTimeout(180_000);
   await new SignInPage(page).withPassword(DESIGNER, DEMO_PASSWORD);
   await new TeamsPage(page).openTeam(TEAM);
   await page.getByTestId('team-parts-link').click();
@@ -98,6 +99,7 @@ test('a designer searches the team library, binds a lower-PIV diode and sees its
 });
 
 test('a viewer sees the library read-only, and the server refuses a viewer’s new part', async ({ page }) => {
+  test.setTimeout(120_000);
   await new SignInPage(page).withPassword(VIEWER, DEMO_PASSWORD);
   await page.goto(`/teams/${TEAM_ID}/parts`);
   await expect(page.getByTestId('part-row').first()).toBeVisible();
@@ -121,6 +123,7 @@ test('a viewer sees the library read-only, and the server refuses a viewer’s n
 });
 
 test('the owner’s derating policy is what the design’s stress table judges at', async ({ page }) => {
+  test.setTimeout(180_000);
   await new SignInPage(page).withPassword(OWNER, DEMO_PASSWORD);
   const was = ((await (await page.request.get(`/api/teams/${TEAM_ID}/parts-policy`)).json()) as { policy: { deratingFraction: number } }).policy.deratingFraction;
   try {
@@ -128,9 +131,10 @@ test('the owner’s derating policy is what the design’s stress table judges a
     await page.getByTestId('policy-input').fill('50');
     await page.getByTestId('policy-save').click();
     await expect(page.getByTestId('policy-fraction')).toHaveAttribute('data-fraction', '0.5');
+    // The owner opens the designer's ladder to view (a colleague's design opens read-only).
     await page.goto(`/designs/${BIAS}`);
     const ed = new EditorPage(page);
-    await ed.ready();
+    await ed.ready('view');
     await ed.waitSolved();
     await expect(page.getByTestId('stress-derating')).toHaveAttribute('data-fraction', '0.5');
     await expect(page.getByTestId('stress-derating')).toContainText('50 % of rating (team policy)');
