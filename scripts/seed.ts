@@ -16,6 +16,7 @@ import type { CommentAnchor, Role } from '../lib/api/contract';
 import type { Transaction } from 'sequelize';
 import { seedBench } from './seed-bench';
 import { seedParts } from './seed-parts';
+import { seedBindings } from './seed-bindings';
 
 /** The demo password of every seeded person (printed by `npm run app`, written in the README). */
 export const DEMO_PASSWORD = 'kilorung-demo-1';
@@ -276,6 +277,8 @@ async function seed(): Promise<void> {
     if (benchMade) console.log(`[seed] created ${benchMade} bench dataset(s) (invented demo data)`);
     const partsMade = await seedParts(transaction, { teamId: TEAMS[0].id, createdBy: userId('dev') });
     if (partsMade) console.log(`[seed] created ${partsMade} library part(s) (invented makers and part numbers)`);
+    const boundMade = await seedBindings(transaction, { teamId: TEAMS[0].id, authorId: userId('ada') });
+    if (boundMade) console.log('[seed] bound the low-ripple fork\'s stage diodes to a library part (a new revision)');
   });
   console.log(`[seed] created ${created.users} user(s), ${created.teams} team(s), ${created.designs} design(s), ${created.collaboration} review(s) and comment(s) (existing rows left as they were)`);
   console.log(`[seed] demo sign-ins (password for all: ${DEMO_PASSWORD}):`);
