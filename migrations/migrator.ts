@@ -11,8 +11,8 @@ import * as createDesigns from './20261202000300-create-designs';
 import * as reviewsAndOffers from './20261202000400-reviews-and-offers';
 import * as commentsAndActivity from './20261202000500-comments-and-activity';
 import * as partsLibrary from './20261202000600-parts-library';
-import * as analyses from './20261202000800-analyses';
 import * as benchData from './20261202000700-bench-data';
+import * as analyses from './20261202000800-analyses';
 import * as auditLog from './20261202000900-audit-log';
 
 type Step = (params: { context: QueryInterface }) => Promise<void>;
@@ -23,8 +23,8 @@ const MIGRATIONS: [string, { up: Step; down: Step }][] = [
   ['20261202000400-reviews-and-offers', reviewsAndOffers],
   ['20261202000500-comments-and-activity', commentsAndActivity],
   ['20261202000600-parts-library', partsLibrary],
-  ['20261202000800-analyses', analyses],
   ['20261202000700-bench-data', benchData],
+  ['20261202000800-analyses', analyses],
   ['20261202000900-audit-log', auditLog],
 ];
 

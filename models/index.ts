@@ -18,10 +18,10 @@ import { ForkOffer } from './fork-offer';
 // comments and activity
 import { Comment } from './comment';
 import { ActivityEvent, ActivityRecipient, NotificationSetting } from './activity';
-// analyses (sweeps and spreads)
-import { Analysis } from './analysis';
 // bench data (measurements on the built supply)
 import { BenchDataset } from './bench-dataset';
+// analyses (sweeps and spreads)
+import { Analysis } from './analysis';
 // audit log
 import { AuditEvent } from './audit-event';
 // parts library
@@ -32,10 +32,10 @@ export { User, Account, Session, VerificationToken, SignInThrottle, Team, Member
 export { ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer };
 // comments and activity
 export { Comment, ActivityEvent, ActivityRecipient, NotificationSetting };
-// analyses (sweeps and spreads)
-export { Analysis };
 // bench data
 export { BenchDataset };
+// analyses (sweeps and spreads)
+export { Analysis };
 // audit log
 export { AuditEvent };
 // parts library
@@ -63,10 +63,10 @@ export interface Models {
   ActivityEvent: typeof ActivityEvent;
   ActivityRecipient: typeof ActivityRecipient;
   NotificationSetting: typeof NotificationSetting;
-  // analyses (sweeps and spreads)
-  Analysis: typeof Analysis;
   // bench data
   BenchDataset: typeof BenchDataset;
+  // analyses (sweeps and spreads)
+  Analysis: typeof Analysis;
   // audit log
   AuditEvent: typeof AuditEvent;
   // parts library
@@ -83,10 +83,10 @@ export function initModels(sequelize: Sequelize): Models {
     ...{ ReviewRequest, ReviewRequestReviewer, Approval, ForkOffer },
     // comments and activity
     ...{ Comment, ActivityEvent, ActivityRecipient, NotificationSetting },
-    // analyses (sweeps and spreads)
-    ...{ Analysis },
     // bench data
     ...{ BenchDataset },
+    // analyses (sweeps and spreads)
+    ...{ Analysis },
     // audit log
     ...{ AuditEvent },
     // parts library
