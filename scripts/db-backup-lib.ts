@@ -63,12 +63,12 @@ export function redact(text: string, t: Target): string {
 }
 
 /** Run one of Debian's PostgreSQL programs; rejects with its stderr (redacted) on a non-zero exit. */
-export function runPg(program: string, args: string[], t: Target): Promise<{ stdout: string; stderr: string }> {
+export function runPg(program: string, args: string[], t: Target, extraEnv: Record<string, string> = {}): Promise<{ stdout: string; stderr: string }> {
   const bin = path.join(PG_BIN, program);
   if (!fs.existsSync(bin)) {
     return Promise.reject(new ScriptError(`${bin} not found: install Debian's PostgreSQL 15 client (bash scripts/pg-up.sh does) or set PG_BIN`, 2));
   }
-  const env: NodeJS.ProcessEnv = { ...process.env, PGCONNECT_TIMEOUT: process.env.PGCONNECT_TIMEOUT ?? '10' };
+  const env: NodeJS.ProcessEnv = { ...process.env, PGCONNECT_TIMEOUT: process.env.PGCONNECT_TIMEOUT ?? '10', ...extraEnv };
   if (t.password) env.PGPASSWORD = t.password;
   return new Promise((resolve, reject) => {
     execFile(bin, args, { env, encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 }, (error, stdout, stderr) => {

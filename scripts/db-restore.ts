@@ -1,8 +1,12 @@
 /**
  * `npm run db:restore -- FILE [--yes]`: put a `db:backup` dump back into DATABASE_URL (default as
- * in scripts/env.sh) with `pg_restore --clean --if-exists --no-owner --no-privileges
- * --single-transaction`: every object in the dump is dropped and re-created in one transaction,
- * so a restore that fails part-way leaves the database exactly as it was.
+ * in scripts/env.sh): `pg_restore --clean --if-exists --no-owner --no-privileges` writes the
+ * dump as SQL (to a private temporary file), and psql runs it with ON_ERROR_STOP in one
+ * transaction (`--single-transaction`), so a restore that fails part-way leaves the database
+ * exactly as it was. Schemas the dump holds besides public (the job queue's `pgboss`, whose
+ * partitioned tables `--clean` cannot take apart constraint by constraint) are dropped whole with
+ * CASCADE first, in the same transaction; public objects are dropped one by one as the dump
+ * lists them, so an object someone added on top of a table (a view, say) stops the restore.
  *
  * Refuses when FILE is missing or is not a PostgreSQL custom-format dump (checked with
  * `pg_restore --list` before anything is touched), and refuses to replace a database that holds
@@ -13,10 +17,18 @@
  * 2 usage, or FILE is missing or not a dump; 3 the database holds data and --yes was not given.
  */
 import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import { census, connect, describeCensus, runPg, runScript, ScriptError, target, type Target } from './db-backup-lib';
 
 const USAGE = 'usage: npm run db:restore -- FILE [--yes]';
+
+const quoteIdent = (name: string) => `"${name.replace(/"/g, '""')}"`;
+
+/** The schemas a dump creates, from its `pg_restore --list` table of contents. */
+function dumpSchemas(listing: string): string[] {
+  return [...listing.matchAll(/^\d+; \d+ \d+ SCHEMA - (\S+) /gm)].map((m) => m[1]);
+}
 
 /** Migrations this code has that the restored database has not run. */
 async function pendingMigrations(t: Target): Promise<string[]> {
@@ -73,10 +85,23 @@ await runScript('db:restore', async () => {
   }
 
   const t0 = performance.now();
+  const work = fs.mkdtempSync(path.join(os.tmpdir(), 'kilorung-restore-'));
   try {
-    await runPg('pg_restore', ['--clean', '--if-exists', '--no-owner', '--no-privileges', '--single-transaction', `--dbname=${t.url}`, file], t);
+    const sql = path.join(work, 'restore.sql');
+    await runPg('pg_restore', ['--clean', '--if-exists', '--no-owner', '--no-privileges', `--file=${sql}`, file], t);
+    fs.chmodSync(sql, 0o600);
+    const prelude = dumpSchemas(listing)
+      .filter((name) => name !== 'public')
+      .map((name) => `DROP SCHEMA IF EXISTS ${quoteIdent(name)} CASCADE;`)
+      .join(' ');
+    const args = ['-X', '-q', '-v', 'ON_ERROR_STOP=1', '--single-transaction', `--dbname=${t.url}`];
+    if (prelude) args.push('-c', prelude);
+    args.push('-f', sql);
+    await runPg('psql', args, t, { PGOPTIONS: '-c client_min_messages=warning' });
   } catch (e) {
     throw new ScriptError(`${e instanceof Error ? e.message : String(e)}\nthe restore ran in one transaction and was rolled back: ${t.display} is as it was`);
+  } finally {
+    fs.rmSync(work, { recursive: true, force: true });
   }
   const seconds = (performance.now() - t0) / 1000;
 

@@ -18,10 +18,11 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 
-const FAULT_PGPORT = Number(process.env.FAULT_PGPORT ?? 55526);
 vi.hoisted(() => {
-  // before helpers.ts reads it: this file's database is on its own cluster
-  process.env.DATABASE_URL = `postgres://app@127.0.0.1:${process.env.FAULT_PGPORT ?? 55526}/kilorung_faults_test`;
+  // before helpers.ts reads it: this file's database is on its own cluster, on a port of this
+  // process's own (two checkouts testing at once on one machine must not meet on a fixed port)
+  process.env.FAULT_PGPORT ??= String(56000 + (process.pid % 1000));
+  process.env.DATABASE_URL = `postgres://app@127.0.0.1:${process.env.FAULT_PGPORT}/kilorung_faults_test`;
   process.env.DB_POOL_MAX = '8';
 });
 
@@ -37,6 +38,8 @@ import { resultsOf } from '@/lib/compare/results';
 import { db } from '@/lib/db';
 import { call, sampleDocument, setupFixtures, teardown, type AnyHandler, type Fixtures } from './helpers';
 
+const FAULT_PGPORT = Number(process.env.FAULT_PGPORT);
+
 const REPO = path.resolve(import.meta.dirname, '../..');
 const PGBIN = '/usr/lib/postgresql/15/bin';
 const DATA = `/tmp/kilorung-faults-${FAULT_PGPORT}`;
@@ -48,7 +51,18 @@ function pgEnv(): NodeJS.ProcessEnv {
 }
 /** Start (or create and start) the throwaway cluster with the project's own script. */
 function pgUp(): void {
-  execFileSync('bash', [path.join(REPO, 'scripts/pg-up.sh'), 'kilorung_faults_test'], { env: pgEnv(), stdio: 'pipe', timeout: 120_000 });
+  try {
+    execFileSync('bash', [path.join(REPO, 'scripts/pg-up.sh'), 'kilorung_faults_test'], { env: pgEnv(), stdio: 'pipe', timeout: 120_000 });
+  } catch (e) {
+    // the server's own words say why it did not start (port taken, shared memory, permissions)
+    let log: string;
+    try {
+      log = fs.readFileSync(`${PGDATA}/server.log`, 'utf8').split('\n').slice(-15).join('\n');
+    } catch {
+      log = '(no server.log)';
+    }
+    throw new Error(`${e instanceof Error ? e.message : String(e)}\nserver.log (last lines):\n${log}`, { cause: e });
+  }
 }
 /** Stop it: `immediate` kills every backend without a checkpoint (crash recovery at the next start). */
 function pgStop(mode: 'immediate' | 'fast'): void {

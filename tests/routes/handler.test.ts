@@ -21,7 +21,7 @@ describe('route wrapper', () => {
     const guarded = route({ body: z.object({ n: z.int() }) }, async ({ body, user }) => ({ n: body.n, user: user.id }));
     expect((await call(guarded, '/x', { method: 'POST', body: '{not json' })).status).toBe(401);
     const ok = await call(guarded, '/x', { method: 'POST', body: { n: 3 }, as: f.users.viewer });
-    expect(ok).toEqual({ status: 200, body: { n: 3, user: f.users.viewer.id } });
+    expect({ status: ok.status, body: ok.body }).toEqual({ status: 200, body: { n: 3, user: f.users.viewer.id } });
   });
 
   it('accepts +json types and charset parameters, refuses other types', async () => {
@@ -58,14 +58,15 @@ describe('route wrapper', () => {
     const conflicted = publicRoute({}, async () => {
       throw new AppError('conflict', 'stale', { latestRevision: 7 });
     });
-    expect(await call(conflicted, '/x')).toEqual({ status: 409, body: { error: { code: 'conflict', message: 'stale', latestRevision: 7 } } });
+    const stale = await call(conflicted, '/x');
+    expect({ status: stale.status, body: stale.body }).toEqual({ status: 409, body: { error: { code: 'conflict', message: 'stale', latestRevision: 7 } } });
 
     const log = vi.spyOn(console, 'error').mockImplementation(() => undefined);
     const broken = publicRoute({}, async () => {
       throw new Error('database exploded');
     });
     const res = await call(broken, '/api/broken', { as: f.users.owner, headers: { authorization: 'Bearer very-secret-value' } });
-    expect(res).toEqual({ status: 500, body: { error: { code: 'internal', message: 'something went wrong on the server' } } });
+    expect({ status: res.status, body: res.body }).toEqual({ status: 500, body: { error: { code: 'internal', message: 'something went wrong on the server' } } });
     const logged = log.mock.calls.map((c) => c.join(' ')).join('\n');
     log.mockRestore();
     expect(logged).toContain('GET /api/broken');
