@@ -21,6 +21,8 @@ import { formatSi } from '@/lib/client/format';
 import type { PortKey } from '@/lib/editor/types';
 import { BlockSvg, GroundGlyph, INK, Junction, Lead, LoadGlyph, PartOnSegment, SourceGlyph, type Pt } from './symbols';
 import { useHoverApi } from './hover-store';
+import { useEditorParts } from '@/components/parts/editor-parts-context';
+import { diodeLabel } from '@/lib/parts/binding';
 import { useEditor, useEditorApi } from './store-context';
 
 const designatorCache = new WeakMap<DesignDocument, Map<string, string>>();
@@ -158,7 +160,6 @@ function Title({ text, x, y, anchor = 'start' }: { text: string; x: number; y: n
 }
 
 const capLabel = (f: number) => formatSi(f, 'F');
-const pivLabel = (d: { ratedPivV?: number; partId?: string | null }) => d.partId || (d.ratedPivV ? `${formatSi(d.ratedPivV, 'V')} PIV` : undefined);
 
 function StageNodeView({ data, selected }: NodeProps<BlockNode>) {
   const block = data.block;
@@ -320,10 +321,11 @@ function PartNodeView({ data, selected }: NodeProps<BlockNode>) {
   const { width, height } = blockSize(block);
   const p = anchorMap(block);
   const over = data.overRoles.length > 0 || data.fault === 'error';
+  const lib = useEditorParts();
   let part: React.ReactNode = null;
   if (block.kind === 'capacitor') part = <PartOnSegment shape="capacitor" from={p.a} to={p.b} label={capLabel(block.data.capacitanceF)} labelSide={-1} fault={over} designator={designator} />;
   else if (block.kind === 'resistor') part = <PartOnSegment shape="resistor" from={p.a} to={p.b} label={formatSi(block.data.resistanceOhm, 'Ω')} labelSide={-1} fault={over} designator={designator} />;
-  else if (block.kind === 'diode') part = <PartOnSegment shape="diode" from={p.anode} to={p.cathode} label={pivLabel(block.data)} labelSide={-1} fault={over} designator={designator} />;
+  else if (block.kind === 'diode') part = <PartOnSegment shape="diode" from={p.anode} to={p.cathode} label={diodeLabel(block.data, (id) => lib?.byId.get(id)?.partNumber)} labelSide={-1} fault={over} designator={designator} />;
   return (
     <Frame block={block} data={data} selected={selected}>
       <BlockSvg width={width} height={height}>

@@ -17,6 +17,16 @@
  */
 import type { CapacitorSpec, DesignBlock, DiodeModelParams, DiodeSpec } from '../circuit/document/schema';
 import type { PartInput, PartKind } from './schema';
+import { formatSi } from '../client/format';
+
+/**
+ * The label a single diode shows on the canvas: the bound library part's number when the library
+ * knows the part, else its rated PIV, else nothing — never the raw part id.
+ */
+export function diodeLabel(d: { ratedPivV?: number; partId?: string | null }, partNumberOf: (partId: string) => string | undefined): string | undefined {
+  const number = d.partId ? partNumberOf(d.partId) : undefined;
+  return number ?? (d.ratedPivV ? `${formatSi(d.ratedPivV, 'V')} PIV` : undefined);
+}
 
 export type ResistorSpec = Extract<DesignBlock, { kind: 'resistor' }>['data'];
 type StageBlock = Extract<DesignBlock, { kind: 'stage' }>;

@@ -12,6 +12,7 @@ import {
   bindResistor,
   bindRole,
   bindingDrift,
+  diodeLabel,
   keepBindingAfterEdit,
   partRolesOf,
   specAt,
@@ -174,5 +175,16 @@ describe('through the editor store', () => {
     if (!r.ok) throw new Error(r.reason);
     expect(store.getState().updateBlock(r.block).ok).toBe(false);
     expect(store.getState().document).toBe(doc);
+  });
+});
+
+describe('diodeLabel (a single diode on the canvas)', () => {
+  const numbers = new Map([['0b0e0000-0000-4000-8000-000000000001', 'TGD-1K0-1A']]);
+  const lookup = (id: string) => numbers.get(id);
+  it('shows the bound part number, else the rated PIV, never the raw part id', () => {
+    expect(diodeLabel({ partId: '0b0e0000-0000-4000-8000-000000000001', ratedPivV: 1000 }, lookup)).toBe('TGD-1K0-1A');
+    expect(diodeLabel({ partId: 'ffffffff-0000-4000-8000-000000000009', ratedPivV: 12_000 }, lookup)).toBe('12 kV PIV');
+    expect(diodeLabel({ partId: 'ffffffff-0000-4000-8000-000000000009' }, lookup)).toBeUndefined();
+    expect(diodeLabel({ ratedPivV: 400 }, lookup)).toBe('400 V PIV');
   });
 });
