@@ -74,12 +74,14 @@ export function wiresOnlyIn(here: DesignDocument, there: DesignDocument): string
 
 /**
  * Diff the two documents and solve both (each with the engine's wall-clock budget; a side that
- * does not compile or solve carries its reason). `relation` only words the header.
+ * does not compile or solve carries its reason). `relation` only words the header. `solved`: the
+ * two sides' results when the caller solved them already (the server solves them in the solve
+ * pool, lib/compare/pooled.ts); without it both are solved here, on the calling thread.
  */
-export function buildComparison(a: CompareSideInput, b: CompareSideInput, relation: CompareRelation): ComparisonView {
+export function buildComparison(a: CompareSideInput, b: CompareSideInput, relation: CompareRelation, solved?: { a: DesignResults; b: DesignResults }): ComparisonView {
   const diff = diffDesigns(a.document, b.document);
-  const ra = resultsOf(a.document);
-  const rb = resultsOf(b.document);
+  const ra = solved ? solved.a : resultsOf(a.document);
+  const rb = solved ? solved.b : resultsOf(b.document);
   const h = highlights(diff);
   return {
     relation,

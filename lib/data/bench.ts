@@ -9,9 +9,11 @@
  * is parsed and checked before anything is written; the raw file goes to S3 first and is removed
  * again if the database insert fails.
  *
- * Comparisons are solved per request (lib/bench/model.ts, one 30 s budget for all solves) and
- * kept in a small in-process cache by dataset and revision (both immutable: revisions are
- * append-only and a dataset's points never change).
+ * Comparisons are solved per request in the solve pool (lib/solve-pool: off the request thread;
+ * lib/bench/model.ts, one 30 s budget for all solves, plus the pool's hard cut-off) and kept in a
+ * small in-process cache by dataset and revision (both immutable: revisions are append-only and a
+ * dataset's points never change). A comparison the pool cut off or was too busy for is not
+ * cached, so the next look tries again.
  */
 import 'server-only';
 import { randomUUID } from 'node:crypto';
@@ -19,7 +21,8 @@ import type { Role } from '../api/contract';
 import { json } from '../api/handler';
 import type { Upload } from '../api/upload';
 import { looksLikePdf } from '../api/upload';
-import { compareWithModel } from '../bench/model';
+import { BENCH_SOLVE_BUDGET_MS } from '../bench/model';
+import { cutOffFor, runSolve } from '../solve-pool';
 import { benchMappingSchema, benchNameSchema, benchNotesSchema, MAX_BENCH_FILE_BYTES, type BenchMapping } from '../bench/mapping';
 import { inspectCsv, readPoints, type BenchPoint, type CsvError } from '../bench/parse';
 import type { BenchDatasetDto, BenchDetailDto, BenchInspectDto } from '../bench/types';
@@ -226,14 +229,17 @@ async function comparisonOf(dataset: BenchDataset, number: number): Promise<Benc
   if (!r) throw notFound('revision');
   const doc = designDocumentSchema.safeParse(r.document);
   let result: BenchDetailDto['comparison'];
+  let cacheable = true;
   if (!doc.success) {
     result = { ok: false, reason: `revision ${number} does not read as a design document` };
   } else {
     const points: BenchPoint[] = dataset.points.map(([x, y, line]) => ({ line, x, y }));
-    const c = compareWithModel(doc.data, dataset.kind, points);
+    const pooled = await runSolve('compareWithModel', [doc.data, dataset.kind, points, BENCH_SOLVE_BUDGET_MS], { timeoutMs: cutOffFor(BENCH_SOLVE_BUDGET_MS) });
+    cacheable = pooled.ok;
+    const c = pooled.ok ? pooled.value : { ok: false as const, reason: pooled.reason };
     result = c.ok ? { ok: true, ...c.comparison } : { ok: false, reason: c.reason };
   }
-  comparisons.set(key, result);
+  if (cacheable) comparisons.set(key, result);
   while (comparisons.size > CACHE_SIZE) comparisons.delete(comparisons.keys().next().value as string);
   return result;
 }

@@ -9,8 +9,8 @@
  *
  * What is read besides the revision: the team's name, its derating policy and the team parts
  * library entries the revision's parts are bound to (number, maker, unit cost, currency), both
- * through lib/data/parts.ts, and the design's approvals. The BOM and the report solve the revision (lib/exports/solve.ts, 15 s
- * budget); a failed solve still gives a BOM (without the stress columns) and a report that says
+ * through lib/data/parts.ts, and the design's approvals. The BOM and the report solve the revision in the solve pool (off the
+ * request thread, lib/solve-pool; lib/exports/solve.ts, 15 s budget plus the pool's cut-off); a failed solve still gives a BOM (without the stress columns) and a report that says
  * why it has no results.
  */
 import 'server-only';
@@ -22,7 +22,8 @@ import { buildBom, bomCsv, type LibraryPartInfo } from '../exports/bom';
 import { CONTENT_TYPES, designJsonText, exportFileName, netlistWithDesignators, type ExportFormat } from '../exports/files';
 import { buildReportModel, type ReportApproval } from '../exports/report';
 import { renderReportPdf } from '../exports/report-pdf';
-import { solveForExport } from '../exports/solve';
+import { EXPORT_SOLVE_BUDGET_MS, type ExportSolve } from '../exports/solve';
+import { cutOffFor, runSolve } from '../solve-pool';
 import { loadCaller } from './access';
 import { getRevisionOf, loadReadable } from './designs';
 import { userDto } from './dto';
@@ -69,6 +70,12 @@ async function approvalsOf(designId: string): Promise<ReportApproval[]> {
  * Export revision `number` (from the path: digits only, else 404) of a design the caller may read
  * in `format`. A netlist of a drawing that does not compile answers 422 with the compiler's reason.
  */
+/** The export's solve in the solve pool (off the request thread); a cut-off or a busy pool is the reason. */
+async function pooledExportSolve(doc: DesignDocument, teamDerating: number | null, warmup: boolean): Promise<ExportSolve> {
+  const r = await runSolve('solveForExport', [doc, teamDerating, { warmup, budgetMs: EXPORT_SOLVE_BUDGET_MS }], { timeoutMs: cutOffFor(EXPORT_SOLVE_BUDGET_MS) });
+  return r.ok ? r.value : { ok: false, reason: r.reason, compiled: null };
+}
+
 export async function exportRevision(userId: string, designId: string, number: string, format: ExportFormat): Promise<ExportFile> {
   if (!/^[1-9][0-9]{0,8}$/.test(number)) throw notFound('revision');
   const caller = await loadCaller(userId);
@@ -85,11 +92,11 @@ export async function exportRevision(userId: string, designId: string, number: s
   }
   const [library, teamDerating] = await Promise.all([libraryPartsFor(userId, design.teamId, boundIds(doc)), teamDeratingFraction(design.teamId)]);
   if (format === 'bom') {
-    const solve = solveForExport(doc, teamDerating, { warmup: false });
+    const solve = await pooledExportSolve(doc, teamDerating, false);
     return { body: bomCsv(buildBom(doc, library, solve.ok ? solve.stress : null)), contentType, fileName };
   }
   const [team, approvals] = await Promise.all([db().models.Team.findByPk(design.teamId), approvalsOf(design.id)]);
-  const solve = solveForExport(doc, teamDerating);
+  const solve = await pooledExportSolve(doc, teamDerating, true);
   const model = buildReportModel(
     {
       designTitle: design.title,

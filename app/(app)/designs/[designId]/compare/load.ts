@@ -1,5 +1,6 @@
 import 'server-only';
-import { buildComparison, defaultRevisions, type CompareRelation, type CompareSideInput, type ComparisonView } from '@/lib/compare';
+import { solveComparison } from '@/lib/compare/pooled';
+import { defaultRevisions, type CompareRelation, type CompareSideInput, type ComparisonView } from '@/lib/compare';
 import { getDesign, getRevision, listRevisions } from '@/lib/data/designs';
 import type { DesignDetailDto } from '@/lib/api/contract';
 import { notFound } from '@/lib/errors';
@@ -45,5 +46,5 @@ export async function loadComparison(userId: string, designId: string, q: Compar
   const db = q.bDesign && q.bDesign !== designId ? (await getDesign(userId, q.bDesign)).design : da;
   const wanted = defaultRevisions(q, da.latestRevision, db.latestRevision, da.id === db.id);
   const [a, b] = await Promise.all([side(userId, da, wanted.a), side(userId, db, wanted.b)]);
-  return buildComparison(a, b, relationOf(da, db));
+  return solveComparison(a, b, relationOf(da, db));
 }

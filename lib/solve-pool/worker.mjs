@@ -1,0 +1,25 @@
+// One solve thread of the pool (lib/solve-pool/index.ts). Plain ESM so node starts it as is; the
+// TypeScript engine is loaded through tsx's scoped loader (tsconfig paths included), once per
+// thread. Each message is one task; the answer carries the same id.
+import { parentPort } from 'node:worker_threads';
+import { tsImport } from 'tsx/esm/api';
+
+const { tasks } = await tsImport('./tasks.ts', import.meta.url);
+
+parentPort.on('message', (msg) => {
+  const { id, name, args } = msg;
+  let reply;
+  try {
+    const fn = Object.hasOwn(tasks, name) ? tasks[name] : undefined;
+    if (typeof fn !== 'function') throw new Error(`unknown solve task ${String(name)}`);
+    reply = { id, ok: true, value: fn(...args) };
+  } catch (e) {
+    reply = { id, ok: false, error: e instanceof Error ? e.message : String(e) };
+  }
+  try {
+    parentPort.postMessage(reply);
+  } catch (e) {
+    parentPort.postMessage({ id, ok: false, error: `the result could not be sent back: ${e instanceof Error ? e.message : String(e)}` });
+  }
+});
+parentPort.postMessage({ ready: true });
