@@ -22,11 +22,13 @@
  *
  * Options: --url URL --port N (default $E2E_PORT or 3716) --clients 50,200 --duration 20 --amount 40000
  *          --designs 20 --users N --mix full,nosolve (default full; --no-solve = nosolve) --timeout 10 (s per request)
+ *          --rate R (requests per second from each client; default 0 = back to back, the server's ceiling)
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createRequire } from 'node:module';
 import os from 'node:os';
 import { encode } from 'next-auth/jwt';
+import { Transaction } from 'sequelize';
 import { closeDb, db } from '../lib/db';
 import { hashPassword } from '../lib/auth/password';
 import { halfWaveStarter } from '../lib/circuit/document/starters';
@@ -50,6 +52,13 @@ const USERS = Number(opt('users', String(Math.max(...CLIENTS))));
 /** Session mixes to run, each at every client count: `full` (with the compare solve) and/or `nosolve`. */
 const MIXES = (flag('no-solve') ? 'nosolve' : opt('mix', 'full')).split(',').filter((m) => m === 'full' || m === 'nosolve');
 const TIMEOUT_S = Number(opt('timeout', '10'));
+/**
+ * Requests per second from each client (autocannon's connectionRate): 0 = back to back, a
+ * stress test of the server's ceiling; 1 = a client that asks once a second, brisker than a
+ * person at the editor (a save, a comment or a compare is seconds of work apart).
+ */
+const RATE = Number(opt('rate', '0'));
+if (!Number.isFinite(RATE) || RATE < 0) throw new Error('--rate: requests per second per client, 0 or more');
 
 if (!process.env.DATABASE_URL) throw new Error('set DATABASE_URL (source scripts/env.sh) to the database the server uses');
 if (!process.env.NEXTAUTH_SECRET) throw new Error('set NEXTAUTH_SECRET (source scripts/env.sh): sessions are minted with the server secret');
@@ -311,10 +320,11 @@ async function phase(fx: Fixture, connections: number, solve: boolean, label: st
     maxOverallRequests: AMOUNT, // (autocannon ignores duration when given `amount`)
     timeout: TIMEOUT_S,
     requests: requests(fx, solve),
+    ...(RATE > 0 ? { connectionRate: RATE } : {}),
   });
   const seconds = result.duration;
   console.log(`\n[load] machine: ${os.cpus().length} cores, load average ${os.loadavg().map((l) => l.toFixed(1)).join(' / ')} (1/5/15 min) after the phase`);
-  console.log(`[load] ${label}: ${connections} clients, ${seconds.toFixed(1)} s, ${result.requests.total} requests, ${(result.requests.total / seconds).toFixed(1)} req/s; non-2xx ${result.non2xx} (409 on save ${saved409Phase()}), socket errors ${result.errors}, timeouts ${result.timeouts}`);
+  console.log(`[load] ${label}: ${connections} clients${RATE > 0 ? ` at ${RATE} request/s each` : ' back to back'}, ${seconds.toFixed(1)} s, ${result.requests.total} requests, ${(result.requests.total / seconds).toFixed(1)} req/s; non-2xx ${result.non2xx} (409 on save ${saved409Phase()}), socket errors ${result.errors}, timeouts ${result.timeouts}`);
   console.log('kind       n      p50 ms   p95 ms   p99 ms   answers');
   for (const k of KINDS) {
     const s = stats[k];
@@ -341,8 +351,14 @@ async function main(): Promise<void> {
     console.log('[load] warm-up: 5 clients for 3 s (not reported)');
     saved409Phase();
     for (const mix of MIXES) for (const n of CLIENTS) await phase(fx, n, mix === 'full', `${mix === 'full' ? 'full mix (with compare solves)' : 'mix without solves'}`);
-    const [stored] = (await db().sequelize.query("SELECT message FROM design_revisions WHERE design_id IN (:ids) AND message LIKE 'load save %'", { replacements: { ids: fx.designIds } })) as [{ message: string }[], unknown];
-    const [[latest]] = (await db().sequelize.query('SELECT sum(latest_revision - 2)::int AS n FROM designs WHERE id IN (:ids)', { replacements: { ids: fx.designIds } })) as [[{ n: number }], unknown];
+    // saves still in flight when the last phase stopped may commit now: let them land, then read
+    // the revisions and the counters in one transaction (one snapshot), so the two agree
+    await new Promise((r) => setTimeout(r, 2000));
+    const { stored, latest } = await db().sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ }, async (transaction) => {
+      const [rows] = (await db().sequelize.query("SELECT message FROM design_revisions WHERE design_id IN (:ids) AND message LIKE 'load save %'", { replacements: { ids: fx.designIds }, transaction })) as [{ message: string }[], unknown];
+      const [[counters]] = (await db().sequelize.query('SELECT sum(latest_revision - 2)::int AS n FROM designs WHERE id IN (:ids)', { replacements: { ids: fx.designIds }, transaction })) as [[{ n: number }], unknown];
+      return { stored: rows, latest: counters };
+    });
     const storedSet = new Set(stored.map((r) => r.message));
     const missing = [...savedMessages].filter((m) => !storedSet.has(m));
     const unanswered = stored.length - savedMessages.size + missing.length;
