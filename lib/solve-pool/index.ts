@@ -94,8 +94,8 @@ class SolvePool {
   }
 
   private spawn(): Slot {
+    // ref'd while it starts (a caller waits for it); pump() unrefs it once it is idle
     const worker = new Worker(workerFile());
-    worker.unref();
     const slot: Slot = { worker, ready: false, job: null };
     worker.on('message', (msg: { ready?: true; id?: number; ok?: boolean; value?: unknown; error?: string }) => {
       if (msg.ready) {
@@ -153,7 +153,7 @@ class SolvePool {
       slot.worker.ref(); // keep the process alive while a caller waits for this answer
       slot.worker.postMessage({ id, name: job.name, args: job.args });
     }
-    for (const s of this.slots) if (!s.job) s.worker.unref();
+    for (const s of this.slots) if (s.ready && !s.job) s.worker.unref();
   }
 
   private cutOff(slot: Slot, id: number): void {
