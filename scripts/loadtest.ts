@@ -53,9 +53,10 @@ const USERS = Number(opt('users', String(Math.max(...CLIENTS))));
 const MIXES = (flag('no-solve') ? 'nosolve' : opt('mix', 'full')).split(',').filter((m) => m === 'full' || m === 'nosolve');
 const TIMEOUT_S = Number(opt('timeout', '10'));
 /**
- * Requests per second from each client (autocannon's connectionRate): 0 = back to back, a
- * stress test of the server's ceiling; 1 = a client that asks once a second, brisker than a
- * person at the editor (a save, a comment or a compare is seconds of work apart).
+ * Requests per second from each client (autocannon's connectionRate, one instance per client with
+ * staggered starts): 0 = back to back, a stress test of the server's ceiling; 1 = a client that
+ * asks once a second, brisker than a person at the editor (a save, a comment or a compare is
+ * seconds of work apart). Paced phases run for --duration (no --amount cap).
  */
 const RATE = Number(opt('rate', '0'));
 if (!Number.isFinite(RATE) || RATE < 0) throw new Error('--rate: requests per second per client, 0 or more');
@@ -312,16 +313,38 @@ function requests(fx: Fixture, solve: boolean): AcRequestSpec[] {
 
 async function phase(fx: Fixture, connections: number, solve: boolean, label: string): Promise<void> {
   resetStats();
-  const result = await autocannon({
-    url: BASE,
-    connections,
-    pipelining: 1,
-    duration: DURATION_S,
-    maxOverallRequests: AMOUNT, // (autocannon ignores duration when given `amount`)
-    timeout: TIMEOUT_S,
-    requests: requests(fx, solve),
-    ...(RATE > 0 ? { connectionRate: RATE } : {}),
-  });
+  const options = { url: BASE, pipelining: 1, duration: DURATION_S, timeout: TIMEOUT_S };
+  let result: AcResult;
+  if (RATE > 0) {
+    // paced clients: one autocannon instance per client, their starts spread over one pacing
+    // interval, so the clients do not all ask in the same millisecond (autocannon paces every
+    // connection of one instance in step, which turns a steady load into bursts)
+    const gapMs = 1000 / RATE / connections;
+    const runs = await Promise.all(
+      Array.from({ length: connections }, (_, i) =>
+        new Promise<AcResult>((resolve, reject) =>
+          setTimeout(() => autocannon({ ...options, connections: 1, connectionRate: RATE, requests: requests(fx, solve) }).then(resolve, reject), i * gapMs),
+        ),
+      ),
+    );
+    const sum = (f: (r: AcResult) => number) => runs.reduce((n, r) => n + f(r), 0);
+    result = {
+      ...runs[0],
+      requests: { ...runs[0].requests, total: sum((r) => r.requests.total), sent: sum((r) => r.requests.sent) },
+      errors: sum((r) => r.errors),
+      timeouts: sum((r) => r.timeouts),
+      non2xx: sum((r) => r.non2xx),
+      '2xx': sum((r) => r['2xx']),
+      duration: Math.max(...runs.map((r) => r.duration)) + (connections - 1) * gapMs / 1000,
+    };
+  } else {
+    result = await autocannon({
+      ...options,
+      connections,
+      maxOverallRequests: AMOUNT, // (autocannon ignores duration when given `amount`)
+      requests: requests(fx, solve),
+    });
+  }
   const seconds = result.duration;
   console.log(`\n[load] machine: ${os.cpus().length} cores, load average ${os.loadavg().map((l) => l.toFixed(1)).join(' / ')} (1/5/15 min) after the phase`);
   console.log(`[load] ${label}: ${connections} clients${RATE > 0 ? ` at ${RATE} request/s each` : ' back to back'}, ${seconds.toFixed(1)} s, ${result.requests.total} requests, ${(result.requests.total / seconds).toFixed(1)} req/s; non-2xx ${result.non2xx} (409 on save ${saved409Phase()}), socket errors ${result.errors}, timeouts ${result.timeouts}`);
