@@ -9,9 +9,10 @@
  *
  * What is read besides the revision: the team's name, its derating policy and the team parts
  * library entries the revision's parts are bound to (number, maker, unit cost, currency), both
- * through lib/data/parts.ts, and the design's approvals. The BOM and the report solve the revision in the solve pool (off the
- * request thread, lib/solve-pool; lib/exports/solve.ts, 15 s budget plus the pool's cut-off); a failed solve still gives a BOM (without the stress columns) and a report that says
- * why it has no results.
+ * through lib/data/parts.ts, and the design's approvals. The BOM and the report solve the
+ * revision in the solve pool (off the request thread, lib/solve-pool; lib/exports/solve.ts, 15 s
+ * budget plus the pool's cut-off); a failed solve still gives a BOM (without the stress columns)
+ * and a report that says why it has no results.
  */
 import 'server-only';
 import type { DesignDocument } from '../circuit/document/schema';
@@ -66,16 +67,16 @@ async function approvalsOf(designId: string): Promise<ReportApproval[]> {
   return rows.map((a) => ({ revision: a.revision, approvedBy: userDto(a.approvedBy).name, approvedAt: a.createdAt.toISOString(), note: a.note }));
 }
 
-/**
- * Export revision `number` (from the path: digits only, else 404) of a design the caller may read
- * in `format`. A netlist of a drawing that does not compile answers 422 with the compiler's reason.
- */
 /** The export's solve in the solve pool (off the request thread); a cut-off or a busy pool is the reason. */
 async function pooledExportSolve(doc: DesignDocument, teamDerating: number | null, warmup: boolean): Promise<ExportSolve> {
   const r = await runSolve('solveForExport', [doc, teamDerating, { warmup, budgetMs: EXPORT_SOLVE_BUDGET_MS }], { timeoutMs: cutOffFor(EXPORT_SOLVE_BUDGET_MS) });
   return r.ok ? r.value : { ok: false, reason: r.reason, compiled: null };
 }
 
+/**
+ * Export revision `number` (from the path: digits only, else 404) of a design the caller may read
+ * in `format`. A netlist of a drawing that does not compile answers 422 with the compiler's reason.
+ */
 export async function exportRevision(userId: string, designId: string, number: string, format: ExportFormat): Promise<ExportFile> {
   if (!/^[1-9][0-9]{0,8}$/.test(number)) throw notFound('revision');
   const caller = await loadCaller(userId);

@@ -13,7 +13,7 @@
  *
  * Tasks wait in a FIFO queue while every thread is busy; a full queue, or a wait past
  * `waitMs`, answers "busy, retry" rather than queueing without bound. Threads are started on
- * first use and unref'd, so a script or a test that used the pool still exits.
+ * first use; an idle thread is unref'd, so a script or a test that used the pool still exits.
  *
  * Size: SOLVE_POOL_SIZE, default one thread fewer than the cores (at least one, at most four):
  * on the 2-core machine, one solve thread beside the request thread.
