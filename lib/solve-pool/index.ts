@@ -16,8 +16,10 @@
  * first use; an idle thread is unref'd, so a script or a test that used the pool still exits.
  *
  * Size: SOLVE_POOL_SIZE, default one thread fewer than the cores (at least one, at most four):
- * on the 2-core machine, one solve thread beside the request thread.
+ * on the 2-core machine, one solve thread beside the request thread. The threads run at a lower
+ * scheduling priority (SOLVE_NICE) and answers are reused (SOLVE_CACHE_SIZE), see below.
  */
+import { createHash } from 'node:crypto';
 import os from 'node:os';
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
@@ -30,6 +32,12 @@ export interface RunOptions {
   timeoutMs: number;
   /** Longest wait (ms) in the queue before the task is refused as busy. Default 30 000. */
   waitMs?: number;
+  /**
+   * Reuse the answer of the same task with the same arguments (default true): every task is a
+   * pure function of its arguments, and a saved revision never changes, so a compare page opened
+   * by five reviewers solves once. Only successful answers are kept ({@link SolveCache}).
+   */
+  cache?: boolean;
 }
 
 /** Tasks that may wait for a thread; one more is refused as busy. */
@@ -46,6 +54,9 @@ interface Job {
 interface Slot {
   worker: Worker;
   ready: boolean;
+  /** The thread's Linux thread id and niceness as it reported them (null elsewhere). */
+  tid: number | null;
+  nice: number | null;
   job: { id: number; job: Job; timer: NodeJS.Timeout } | null;
 }
 
@@ -95,11 +106,13 @@ class SolvePool {
 
   private spawn(): Slot {
     // ref'd while it starts (a caller waits for it); pump() unrefs it once it is idle
-    const worker = new Worker(workerFile());
-    const slot: Slot = { worker, ready: false, job: null };
-    worker.on('message', (msg: { ready?: true; id?: number; ok?: boolean; value?: unknown; error?: string }) => {
+    const worker = new Worker(workerFile(), { workerData: { nice: solveNice() } });
+    const slot: Slot = { worker, ready: false, tid: null, nice: null, job: null };
+    worker.on('message', (msg: { ready?: true; tid?: number | null; nice?: number | null; id?: number; ok?: boolean; value?: unknown; error?: string }) => {
       if (msg.ready) {
         slot.ready = true;
+        slot.tid = msg.tid ?? null;
+        slot.nice = msg.nice ?? null;
         this.pump();
         return;
       }
@@ -191,6 +204,77 @@ class SolvePool {
   get threads(): number {
     return this.slots.length;
   }
+
+  /** Each started thread's Linux thread id and the niceness it set (for tests). */
+  get threadPriorities(): { tid: number | null; nice: number | null }[] {
+    return this.slots.filter((s) => s.ready).map((s) => ({ tid: s.tid, nice: s.nice }));
+  }
+
+  /** Answers kept for reuse. */
+  readonly cache = new SolveCache(solveCacheSize());
+}
+
+/**
+ * The niceness of the solve threads (SOLVE_NICE, 0–19, default 10). On Linux each thread lowers
+ * its own scheduling priority (setpriority on its thread id), so when the cores are busy the
+ * request thread and PostgreSQL go first and a burst of solves slows other solves, not the
+ * list, open and save requests. Elsewhere the setting is ignored.
+ */
+function solveNice(): number {
+  const n = Number(process.env.SOLVE_NICE);
+  return Number.isInteger(n) && n >= 0 && n <= 19 ? n : 10;
+}
+
+function solveCacheSize(): number {
+  const n = Number(process.env.SOLVE_CACHE_SIZE);
+  return Number.isInteger(n) && n >= 0 && n <= 10_000 ? n : 200;
+}
+
+/**
+ * Successful answers by task and arguments (a SHA-256 of the task name and the arguments' JSON),
+ * least recently used out first, plus the solves in flight, so that callers asking the same
+ * thing at the same moment share one solve. Each caller gets its own copy of the answer.
+ */
+export class SolveCache {
+  private readonly done = new Map<string, unknown>();
+  private readonly inFlight = new Map<string, Promise<PoolResult<unknown>>>();
+  hits = 0;
+  misses = 0;
+  constructor(readonly capacity: number) {}
+
+  static key(name: string, args: unknown[]): string {
+    return createHash('sha256').update(name).update('\0').update(JSON.stringify(args)).digest('base64url');
+  }
+
+  async get(key: string, solve: () => Promise<PoolResult<unknown>>): Promise<PoolResult<unknown>> {
+    if (this.done.has(key)) {
+      const value = this.done.get(key);
+      this.done.delete(key); // most recently used goes last
+      this.done.set(key, value);
+      this.hits += 1;
+      return { ok: true, value: structuredClone(value) };
+    }
+    let pending = this.inFlight.get(key);
+    if (pending) this.hits += 1;
+    else {
+      this.misses += 1;
+      pending = solve().then((r) => {
+        this.inFlight.delete(key);
+        if (r.ok && this.capacity > 0) {
+          this.done.set(key, r.value);
+          while (this.done.size > this.capacity) this.done.delete(this.done.keys().next().value as string);
+        }
+        return r;
+      });
+      this.inFlight.set(key, pending);
+    }
+    const r = await pending;
+    return r.ok ? { ok: true, value: structuredClone(r.value) } : r;
+  }
+
+  get size(): number {
+    return this.done.size;
+  }
 }
 
 const KEY = Symbol.for('kilorung.solvePool');
@@ -216,7 +300,10 @@ export async function closeSolvePool(): Promise<void> {
  * none (cut off, busy, the thread lost, or the solve threw).
  */
 export async function runSolve<N extends TaskName>(name: N, args: Parameters<Tasks[N]>, options: RunOptions): Promise<PoolResult<ReturnType<Tasks[N]>>> {
-  return (await solvePool().run(name, args as unknown[], options)) as PoolResult<ReturnType<Tasks[N]>>;
+  const pool = solvePool();
+  const solve = () => pool.run(name, args as unknown[], options);
+  const r = options.cache === false ? await solve() : await pool.cache.get(SolveCache.key(name, args as unknown[]), solve);
+  return r as PoolResult<ReturnType<Tasks[N]>>;
 }
 
 /** The hard cut-off for a solve with engine budget `budgetMs`: the budget plus room for the set-up it does not count. */
