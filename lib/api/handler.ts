@@ -12,6 +12,7 @@ import { MAX_BODY_BYTES } from './contract';
 import { AppError, notFound } from '../errors';
 import { requireUser, type SessionUser } from '../auth/session';
 import { env } from '../env';
+import { warmSolvePool } from '../solve-pool';
 
 type Params = Record<string, string>;
 type Schema = z.ZodType | undefined;
@@ -181,6 +182,18 @@ export function checkSameOrigin(req: Pick<NextRequest, 'method' | 'headers' | 'n
   if (!allowed.has(origin)) throw new AppError('cross_site', 'requests from other sites are refused');
 }
 
+let warmed = false;
+/** In the web server (not in tests or scripts), start the solve threads on the first API request. */
+function warmOnce(): void {
+  if (warmed || process.env.NEXT_RUNTIME !== 'nodejs') return;
+  warmed = true;
+  try {
+    warmSolvePool();
+  } catch (e) {
+    console.error(`[solve-pool] could not start the solve threads early: ${e instanceof Error ? e.message : String(e)}`);
+  }
+}
+
 function wrap<P extends Params, BS extends Schema, QS extends Schema>(
   options: RouteOptions<BS, QS>,
   signedIn: boolean,
@@ -188,6 +201,7 @@ function wrap<P extends Params, BS extends Schema, QS extends Schema>(
 ): NextRouteHandler<P> {
   return async (req, ctx) => {
     const where = `${req.method} ${req.nextUrl.pathname}`;
+    warmOnce();
     try {
       checkSameOrigin(req);
       const user = signedIn ? await requireUser(req) : (null as unknown as SessionUser);

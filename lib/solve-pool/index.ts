@@ -182,6 +182,15 @@ class SolvePool {
     this.pump();
   }
 
+  /**
+   * Start the threads now, before any task, so the first solve does not wait for a thread to load
+   * the engine (about 1–2 s on the 2-core machine). Idle threads do not keep the process alive.
+   */
+  warm(): void {
+    if (this.closed) return;
+    while (this.slots.length < this.size) this.spawn();
+  }
+
   /** Stop every thread and refuse what waits (tests; a clean shutdown). */
   async close(): Promise<void> {
     this.closed = true;
@@ -293,6 +302,15 @@ export async function closeSolvePool(): Promise<void> {
   const pool = g[KEY];
   delete g[KEY];
   if (pool) await pool.close();
+}
+
+/**
+ * Start the process's solve threads in the background (the web server calls this on its first
+ * API request: lib/api/handler.ts). Without it the first compare page after a start waits for a
+ * thread to load the engine, and every request behind it waits too.
+ */
+export function warmSolvePool(): void {
+  solvePool().warm();
 }
 
 /**

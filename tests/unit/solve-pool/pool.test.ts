@@ -103,6 +103,27 @@ describe('the solve pool', () => {
   }, 60_000);
 });
 
+describe('starting early', () => {
+  it('starts its threads before any task, and a warm thread answers without the start-up wait', async () => {
+    await closeSolvePool();
+    const pool = solvePool();
+    expect(pool.threads).toBe(0);
+    pool.warm();
+    expect(pool.threads).toBe(pool.size);
+    const until = Date.now() + 30_000;
+    while (pool.threadPriorities.length < pool.size && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
+    expect(pool.threadPriorities.length).toBe(pool.size); // every thread loaded the engine and said ready
+    pool.warm(); // again: no more threads
+    expect(pool.threads).toBe(pool.size);
+    const t0 = performance.now();
+    const r = await runSolve('resultsOf', [doc(2)], { timeoutMs: 30_000, cache: false });
+    const ms = performance.now() - t0;
+    console.info(`[solve-pool] first solve on a warmed thread ${ms.toFixed(0)} ms`);
+    expect(r.ok).toBe(true);
+    expect(pool.threads).toBe(pool.size);
+  }, 60_000);
+});
+
 describe('reusing answers', () => {
   it('solves the same revision once: a second ask is a kept copy, and callers cannot spoil it for each other', async () => {
     const pool = solvePool();
