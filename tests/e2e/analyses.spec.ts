@@ -28,10 +28,14 @@ test('a viewer runs a 40-sample tolerance spread: the progress bar moves and the
   await expect
     .poll(
       async () => {
-        if ((await view.getAttribute('data-status')) === 'done') return 'done';
-        const now = await bar.getAttribute('aria-valuenow').catch(() => null);
+        // status and bar read in one step: read one after the other, the bar could go (the run
+        // finished in between) and the read would wait for it until the poll gave up
+        const { status, now } = await view.evaluate((el) => ({
+          status: el.getAttribute('data-status'),
+          now: el.querySelector('[data-testid="analysis-progress"]')?.getAttribute('aria-valuenow') ?? null,
+        }));
         if (now !== null) seen.add(Number(now));
-        return 'running';
+        return status === 'done' ? 'done' : 'running';
       },
       { timeout: 120_000, intervals: [200] },
     )
