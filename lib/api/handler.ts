@@ -10,7 +10,8 @@ import { z } from 'zod';
 import { ConnectionError, DatabaseError, UniqueConstraintError } from 'sequelize';
 import { MAX_BODY_BYTES } from './contract';
 import { AppError, notFound } from '../errors';
-import { requireUser, type SessionUser } from '../auth/session';
+import { requireCaller, type SessionUser } from '../auth/session';
+import { withPreloadedCaller } from '../data/access';
 import { env } from '../env';
 import { warmSolvePool } from '../solve-pool';
 
@@ -204,7 +205,8 @@ function wrap<P extends Params, BS extends Schema, QS extends Schema>(
     warmOnce();
     try {
       checkSameOrigin(req);
-      const user = signedIn ? await requireUser(req) : (null as unknown as SessionUser);
+      const who = signedIn ? await requireCaller(req) : null;
+      const user = who ? who.user : (null as unknown as SessionUser);
       const params = ((await ctx?.params) ?? {}) as P;
       for (const [key, value] of Object.entries(params)) {
         if (key.endsWith('Id') && !UUID_RE.test(value)) throw notFound(key.slice(0, -2));
@@ -216,7 +218,9 @@ function wrap<P extends Params, BS extends Schema, QS extends Schema>(
         query = parsed.data;
       }
       const body = options.body ? await parseBody(req, options.body) : undefined;
-      const result = await fn({ req, params, body: body as Out<BS>, query: query as Out<QS>, user });
+      const call = () => fn({ req, params, body: body as Out<BS>, query: query as Out<QS>, user });
+      // the roles were read with the user: the request's first authorisation check uses them
+      const result = who ? await withPreloadedCaller(who.caller, call) : await call();
       return result instanceof Response ? result : json(result, options.status ?? 200);
     } catch (e) {
       return errorResponse(e, where);

@@ -1,9 +1,10 @@
 /**
- * Authorisation, read from the database on every call: which teams the caller belongs to and
+ * Authorisation, read from the database for every request: which teams the caller belongs to and
  * with which role. Outsiders get 404 (existence must not leak); members whose role does not
  * allow an action get 403.
  */
 import 'server-only';
+import { AsyncLocalStorage } from 'node:async_hooks';
 import type { Transaction } from 'sequelize';
 import type { Role } from '../api/contract';
 import { db } from '../db';
@@ -15,8 +16,27 @@ export interface Caller {
   roles: Map<string, Role>;
 }
 
-/** Load the caller's memberships. */
+const preloaded = new AsyncLocalStorage<{ caller: Caller | null }>();
+
+/**
+ * Run `fn` (one API request) with the caller's roles as the route wrapper read them, in the same
+ * query as the session's user (lib/auth/session.ts): the first {@link loadCaller} of the request
+ * takes them instead of asking the database again. Only the first: any later call, or one inside
+ * a transaction, reads the memberships anew, so a request that changes a membership and then looks
+ * again sees the change.
+ */
+export function withPreloadedCaller<T>(caller: Caller, fn: () => Promise<T>): Promise<T> {
+  return preloaded.run({ caller }, fn);
+}
+
+/** Load the caller's memberships (see {@link withPreloadedCaller} for the one read a request saves). */
 export async function loadCaller(userId: string, transaction?: Transaction): Promise<Caller> {
+  const slot = transaction ? undefined : preloaded.getStore();
+  if (slot?.caller && slot.caller.userId === userId) {
+    const caller = slot.caller;
+    slot.caller = null;
+    return caller;
+  }
   const rows = await db().models.Membership.findAll({ where: { userId }, attributes: ['teamId', 'role'], transaction });
   return { userId, roles: new Map(rows.map((m) => [m.teamId, m.role])) };
 }

@@ -6,6 +6,8 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { z } from 'zod';
 import { publicRoute, route } from '@/lib/api/handler';
 import { AppError } from '@/lib/errors';
+import { loadCaller } from '@/lib/data/access';
+import { db } from '@/lib/db';
 import { call, setupFixtures, teardown, type Fixtures } from './helpers';
 
 let f: Fixtures;
@@ -15,6 +17,61 @@ beforeAll(async () => {
 afterAll(teardown);
 
 const echo = publicRoute({ body: z.object({ n: z.int() }) }, async ({ body }) => ({ n: body.n }));
+
+describe("route wrapper: the caller's roles", () => {
+  it('reads the user and their roles in one query, and the first authorisation check of the request uses them', async () => {
+    const queries: string[] = [];
+    const seq = db().sequelize;
+    const original = seq.query.bind(seq) as (...a: unknown[]) => unknown;
+    const spy = vi.spyOn(seq, 'query').mockImplementation(((...args: unknown[]) => {
+      queries.push(String(args[0]));
+      return original(...args);
+    }) as never);
+    try {
+      const who = route({}, async ({ user }) => {
+        const first = await loadCaller(user.id);
+        const afterFirst = queries.length;
+        const again = await loadCaller(user.id); // a later check reads the memberships anew
+        return { first: [...first.roles.entries()], again: [...again.roles.entries()], afterFirst, afterAgain: queries.length };
+      });
+      const res = await call<{ first: [string, string][]; again: [string, string][]; afterFirst: number; afterAgain: number }>(who, '/x', { as: f.users.designer });
+      expect(res.status).toBe(200);
+      expect(res.body.first).toEqual([[f.teamId, 'designer']]);
+      expect(res.body.again).toEqual(res.body.first);
+      expect(res.body.afterFirst).toBe(1); // the session's user and roles together, nothing more
+      expect(queries[0]).toMatch(/FROM users u LEFT JOIN memberships m/);
+      expect(res.body.afterAgain).toBe(2);
+    } finally {
+      spy.mockRestore();
+    }
+  });
+
+  it('a role changed during the request is seen by the next check', async () => {
+    const { Membership } = db().models;
+    const flip = route({}, async ({ user }) => {
+      const before = await loadCaller(user.id);
+      await Membership.update({ role: 'viewer' }, { where: { teamId: f.teamId, userId: user.id } });
+      const after = await loadCaller(user.id);
+      return { before: before.roles.get(f.teamId), after: after.roles.get(f.teamId) };
+    });
+    try {
+      const res = await call<{ before: string; after: string }>(flip, '/x', { as: f.users.reviewer });
+      expect(res.body).toEqual({ before: 'reviewer', after: 'viewer' });
+    } finally {
+      await Membership.update({ role: 'reviewer' }, { where: { teamId: f.teamId, userId: f.users.reviewer.id } });
+    }
+  });
+
+  it('a user deleted since the session was made is 401, roles or not', async () => {
+    const gone = await db().models.User.create({ name: 'Gone', email: `gone.${Date.now()}@example.test`, passwordHash: null, emailVerified: null, image: null });
+    await db().models.Membership.create({ teamId: f.teamId, userId: gone.id, role: 'owner' });
+    const cookieUser = { id: gone.id, email: gone.email, name: 'Gone' };
+    await db().models.Membership.destroy({ where: { userId: gone.id } });
+    await gone.destroy();
+    const res = await call(route({}, async () => ({ ok: true })), '/x', { as: cookieUser });
+    expect(res.status).toBe(401);
+  });
+});
 
 describe('route wrapper', () => {
   it('checks the session before reading the body', async () => {
