@@ -19,7 +19,7 @@
  * reply is read).
  */
 import 'server-only';
-import type { Transaction } from 'sequelize';
+import { Op, type Transaction } from 'sequelize';
 import type { z } from 'zod';
 import type { CommentAnchor, CommentDto, Role, UserDto, commentListQuerySchema, createCommentSchema, updateCommentSchema } from '../api/contract';
 import { compileDocument } from '../circuit/compile/compile';
@@ -149,8 +149,7 @@ async function threadDtos(rows: Comment[], mayResolve: boolean): Promise<Comment
 /** One thread (top-level comment with replies) as the caller sees it. */
 async function threadDto(caller: Caller, d: Design, threadId: string): Promise<CommentDto> {
   const { Comment: C } = db().models;
-  const rows = await C.findAll({ where: { designId: d.id, id: threadId }, include: includeUsers() });
-  rows.push(...(await C.findAll({ where: { designId: d.id, parentId: threadId }, include: includeUsers() })));
+  const rows = await C.findAll({ where: { designId: d.id, [Op.or]: [{ id: threadId }, { parentId: threadId }] }, include: includeUsers() });
   const [dto] = await threadDtos(rows, canResolve(caller.roles.get(d.teamId), d));
   if (!dto) throw notFound('comment');
   return dto;
@@ -193,7 +192,12 @@ export async function createComment(userId: string, designId: string, input: Cre
   }
   const where = checkAnchor(await loadDocument(designId, revision), anchor, revision);
 
-  const members = await models.Membership.findAll({ where: { teamId: d.teamId }, include: [{ model: models.User, as: 'user' }] });
+  // only what mentions and recipients need (a team's member list can be long)
+  const members = await models.Membership.findAll({
+    where: { teamId: d.teamId },
+    attributes: ['id', 'teamId', 'userId', 'role'],
+    include: [{ model: models.User, as: 'user', attributes: ['id', 'name', 'email'] }],
+  });
   const mentionIds = mentionedIds(
     input.body,
     members.map((m) => ({ id: m.userId, name: userDto(m.user).name })),

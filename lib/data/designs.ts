@@ -242,8 +242,8 @@ export async function createDesign(userId: string, teamId: string, input: Create
 export async function getDesign(userId: string, designId: string): Promise<{ design: DesignDetailDto; revision: RevisionDto }> {
   const caller = await loadCaller(userId);
   const d = await loadReadable(caller, designId);
-  const revision = await getRevisionOf(d, d.latestRevision);
-  return { design: await detailDto(caller, d), revision };
+  const [revision, design] = await Promise.all([getRevisionOf(d, d.latestRevision), detailDto(caller, d)]);
+  return { design, revision };
 }
 
 /**
