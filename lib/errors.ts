@@ -6,6 +6,8 @@
 /** HTTP status for each error code. */
 export const ERROR_STATUS = {
   bad_json: 400,
+  /** The client went away while its request body was being read: nothing was changed. */
+  aborted: 400,
   unauthenticated: 401,
   forbidden: 403,
   cross_site: 403,

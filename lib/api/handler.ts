@@ -223,9 +223,18 @@ function wrap<P extends Params, BS extends Schema, QS extends Schema>(
       const result = who ? await withPreloadedCaller(who.caller, call) : await call();
       return result instanceof Response ? result : json(result, options.status ?? 200);
     } catch (e) {
+      if (isClientAbort(e)) return errorResponse(new AppError('aborted', 'the request was cancelled before its body arrived'), where);
       return errorResponse(e, where);
     }
   };
+}
+
+/**
+ * True when the client went away while its body was being read (Node's "aborted", ECONNRESET): the
+ * request changed nothing, no one waits for the answer, and it is not a server fault to log.
+ */
+export function isClientAbort(e: unknown): boolean {
+  return e instanceof Error && e.message === 'aborted' && (e as Error & { code?: string }).code === 'ECONNRESET';
 }
 
 /**

@@ -74,6 +74,27 @@ describe("route wrapper: the caller's roles", () => {
 });
 
 describe('route wrapper', () => {
+  it('a client that goes away mid-body changes nothing and is not logged as a server fault', async () => {
+    const errors = vi.spyOn(console, 'error').mockImplementation(() => undefined);
+    const act = vi.fn(async () => ({ ok: true }));
+    const write = route({ body: z.object({ n: z.int() }) }, act);
+    const body = new ReadableStream<Uint8Array>({
+      start(c) {
+        c.enqueue(new TextEncoder().encode('{"n":'));
+        c.error(Object.assign(new Error('aborted'), { code: 'ECONNRESET' })); // what Node raises when the socket closes
+      },
+    });
+    try {
+      const res = await call(write, '/x', { method: 'POST', body, as: f.users.designer, headers: { 'content-type': 'application/json' } });
+      expect(res.status).toBe(400);
+      expect(res.body).toEqual({ error: { code: 'aborted', message: expect.any(String) } });
+      expect(act).not.toHaveBeenCalled();
+      expect(errors).not.toHaveBeenCalled();
+    } finally {
+      errors.mockRestore();
+    }
+  });
+
   it('checks the session before reading the body', async () => {
     const guarded = route({ body: z.object({ n: z.int() }) }, async ({ body, user }) => ({ n: body.n, user: user.id }));
     expect((await call(guarded, '/x', { method: 'POST', body: '{not json' })).status).toBe(401);

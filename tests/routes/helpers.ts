@@ -94,7 +94,7 @@ export async function sessionCookie(user: FixtureUser): Promise<string> {
 export interface CallOptions {
   method?: string;
   params?: Record<string, string>;
-  /** JSON-encoded unless a string or FormData / Uint8Array (sent as is). */
+  /** JSON-encoded unless a string or FormData / Uint8Array / ReadableStream (sent as is). */
   body?: unknown;
   /** Content type for a string or byte body (default application/json). */
   contentType?: string;
@@ -126,6 +126,8 @@ export async function call<T = Record<string, unknown>>(handler: AnyHandler, pat
   let body: BodyInit | undefined;
   if (o.body instanceof FormData) {
     body = o.body;
+  } else if (o.body instanceof ReadableStream) {
+    body = o.body; // sent as is (a stream that fails part-way, for instance)
   } else if (o.body instanceof Uint8Array) {
     if (!headers.has('content-type')) headers.set('content-type', o.contentType ?? 'application/octet-stream');
     body = o.body as BodyInit;
@@ -144,7 +146,7 @@ export async function call<T = Record<string, unknown>>(handler: AnyHandler, pat
     } else body = text;
   }
   const init: RequestInit & { duplex?: 'half' } = { method: o.method ?? 'GET', headers, body };
-  if (o.stream) init.duplex = 'half';
+  if (o.stream || o.body instanceof ReadableStream) init.duplex = 'half';
   const req = new NextRequest(url, init as ConstructorParameters<typeof NextRequest>[1]);
   const res = await handler(req, { params: Promise.resolve(o.params ?? {}) as Promise<never> });
   const raw = new Uint8Array(await res.arrayBuffer());
