@@ -35,7 +35,8 @@ export interface RunOptions {
   /**
    * Reuse the answer of the same task with the same arguments (default true): every task is a
    * pure function of its arguments, and a saved revision never changes, so a compare page opened
-   * by five reviewers solves once. Only successful answers are kept ({@link SolveCache}).
+   * by five reviewers solves once. Only successful answers are kept, not a task's own
+   * `{ ok: false }` ({@link SolveCache}).
    */
   cache?: boolean;
 }
@@ -240,6 +241,15 @@ function solveCacheSize(): number {
 }
 
 /**
+ * A task's own `{ ok: false, reason }` (every task answers so: the engine ran out of its budget,
+ * the drawing does not compile, …). Not kept: a budget can run out only because the cores were
+ * busy at that moment, and the next ask deserves a fresh try.
+ */
+function isTypedFailure(value: unknown): boolean {
+  return typeof value === 'object' && value !== null && (value as { ok?: unknown }).ok === false;
+}
+
+/**
  * Successful answers by task and arguments (a SHA-256 of the task name and the arguments' JSON),
  * least recently used out first, plus the solves in flight, so that callers asking the same
  * thing at the same moment share one solve. Each caller gets its own copy of the answer.
@@ -269,7 +279,7 @@ export class SolveCache {
       this.misses += 1;
       pending = solve().then((r) => {
         this.inFlight.delete(key);
-        if (r.ok && this.capacity > 0) {
+        if (r.ok && this.capacity > 0 && !isTypedFailure(r.value)) {
           this.done.set(key, r.value);
           while (this.done.size > this.capacity) this.done.delete(this.done.keys().next().value as string);
         }

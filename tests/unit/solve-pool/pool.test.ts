@@ -168,6 +168,19 @@ describe('reusing answers', () => {
     expect(pool.restarts).toBe(restarts + 2);
   }, 60_000);
 
+  it("keeps no task's own failure either (a budget that ran out on a busy machine may not run out next time)", async () => {
+    const cache = new SolveCache(4);
+    let solves = 0;
+    const outOfBudget = async () => {
+      solves += 1;
+      return { ok: true as const, value: { ok: false, reason: 'the solve ran past its time budget' } };
+    };
+    expect(await cache.get('k', outOfBudget)).toEqual({ ok: true, value: { ok: false, reason: 'the solve ran past its time budget' } });
+    await cache.get('k', outOfBudget);
+    expect(solves).toBe(2);
+    expect(cache.size).toBe(0);
+  });
+
   it('holds at most its capacity, least recently used out first', async () => {
     const cache = new SolveCache(2);
     const solve = (v: number) => async () => ({ ok: true as const, value: { v } });
